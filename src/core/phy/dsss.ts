@@ -1,0 +1,5 @@
+// PLACEHOLDER: being written; replace whole file.
+import type { PhyFamily } from "./types";
+import { invalid } from "../errors";
+export const dsss: PhyFamily = { family: "dsss" as never, mcsValues: [], validate() { invalid("link: not implemented yet"); }, rateMbps: () => NaN, txtime: () => ({ totalUs: NaN, terms: [] }), maxPsduBytes: () => 0, sensitivityDbm: () => NaN, nonHtReferenceRateMbps: () => NaN };
+export const hrDsss: PhyFamily = { family: "hrDsss" as never, mcsValues: [], validate() { invalid("link: not implemented yet"); }, rateMbps: () => NaN, txtime: () => ({ totalUs: NaN, terms: [] }), maxPsduBytes: () => 0, sensitivityDbm: () => NaN, nonHtReferenceRateMbps: () => NaN };
