@@ -102,3 +102,25 @@ export function nonHtReferenceRateFor(nBpscs: number, codeRate: CodeRate): MbPer
   if (nBpscs === 6) return r <= 2 / 3 ? 48 : 54;
   return 54;
 }
+
+/**
+ * The non-HT (legacy) preamble and signal field that open every OFDM-based
+ * PPDU from Clause 17 on: L-STF 8 µs, L-LTF 8 µs, L-SIG 4 µs
+ * (IEEE 802.11-2020 17.4.3 T_PREAMBLE = 16 µs, T_SIGNAL = 4 µs; 19.4.3
+ * T_LEG_PREAMBLE = 16 µs, T_L-SIG = 4 µs; 20 MHz channel spacing).
+ */
+export const L_STF: PreambleField = ["L-STF", 8];
+export const L_LTF: PreambleField = ["L-LTF", 8];
+export const L_SIG: PreambleField = ["L-SIG", 4];
+
+/**
+ * aSignalExtension: 6 µs of no transmission after every OFDM-based PPDU in
+ * the 2.4 GHz band (IEEE 802.11-2020 Table 18-5 ERP characteristics; 19.4.3
+ * "SignalExtension" term for HT at 2.4 GHz; 802.11ax-2021 27.4.3 for HE).
+ */
+export const aSignalExtension_us: Microseconds = 6;
+
+/** Signal extension of an OFDM-based PPDU in this band, µs. */
+export function signalExtensionUs(bandGHz: number): Microseconds {
+  return bandGHz === 2.4 ? aSignalExtension_us : 0;
+}
