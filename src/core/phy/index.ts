@@ -80,3 +80,11 @@ export function nonHtReferenceRateMbps(link: unknown): MbPerSecond {
   const l = asLink(link);
   return familyModule(l.family).nonHtReferenceRateMbps(l);
 }
+
+/** TXTIMEPARTS rows: [label, value] for each term, then ["TXTIME (µs)", total]. */
+export function txtimeTable(link: unknown, psduBytes: unknown): (string | number)[][] {
+  const t = txtime(link, psduBytes);
+  const rows: (string | number)[][] = t.terms.map((term) => [term.label, term.value]);
+  rows.push(["TXTIME (µs)", t.totalUs]);
+  return rows;
+}

@@ -1,0 +1,11 @@
+/**
+ * The public barrel of the Airtally core: everything the spreadsheet layer,
+ * the command line and the tests use. `src/core` imports nothing from Office,
+ * the DOM or Node.
+ */
+export * from "./errors";
+export * from "./units";
+export { parseLink, formatLink, canonicalLink, buildLink, FAMILIES, NON_HT_FAMILIES } from "./link";
+export type { Link, Family, BandGHz, Coding } from "./link";
+export * as phy from "./phy/index";
+export { rateMbps, txtime, txtimeUs, psduFit, sensitivityDbm, maxPsduBytes, txtimeTable } from "./phy/index";
