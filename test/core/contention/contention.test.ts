@@ -1,0 +1,165 @@
+import { collisionProbability, contentionShare, edcaMix, saturationGoodputMbps } from "../../../src/core/contention";
+import { channelAccess, goodputMbps } from "../../../src/core/mac";
+import { AirtallyError } from "../../../src/core/errors";
+
+const OFDM = "OFDM 54Mbps 5GHz";
+const HE = "HE MCS7 1SS 20MHz 5GHz";
+
+/** Bianchi 2000 eq. (7) (no retry limit) and eq. (9), solved by bisection on τ — independent of the code under test. */
+function bianchiP(n: number, w: number, m: number): number {
+  const tauOf = (p: number) => (2 * (1 - 2 * p)) / ((1 - 2 * p) * (w + 1) + p * w * (1 - Math.pow(2 * p, m)));
+  let lo = 0;
+  let hi = 1;
+  for (let i = 0; i < 200; i++) {
+    const tau = (lo + hi) / 2;
+    if (tau < tauOf(1 - Math.pow(1 - tau, n - 1))) lo = tau;
+    else hi = tau;
+  }
+  return 1 - Math.pow(1 - lo, n - 1);
+}
+
+function valueError(f: () => unknown, argument: string): void {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(AirtallyError);
+    expect((e as AirtallyError).kind).toBe("value");
+    expect((e as AirtallyError).message.startsWith(`${argument}:`)).toBe(true);
+    return;
+  }
+  throw new Error("expected an AirtallyError");
+}
+
+describe("COLLIDE", () => {
+  it("is 0 for one station", () => {
+    expect(collisionProbability(1)).toBe(0);
+  });
+
+  it("matches Bianchi's eqs. (7) and (9) for 10 stations, CW 15…1023, when retries are practically unlimited", () => {
+    expect(collisionProbability(10, 15, 1023, 255)).toBeCloseTo(bianchiP(10, 16, 6), 9); // W = CWmin + 1 = 16, m' = log2(1024/16) = 6
+  });
+
+  it("takes CWmin 15, CWmax 1023 and 7 attempts when omitted", () => {
+    expect(collisionProbability(10, null, null, null)).toBe(collisionProbability(10, 15, 1023, 7));
+  });
+
+  it("rises with the number of stations", () => {
+    const ps = [1, 2, 5, 10, 20, 50, 200, 1000].map((n) => collisionProbability(n));
+    ps.slice(1).forEach((p, i) => expect(p).toBeGreaterThan(ps[i]));
+  });
+
+  it("falls as CWmin widens", () => {
+    expect(collisionProbability(20, 31)).toBeLessThan(collisionProbability(20, 15));
+  });
+
+  it("refuses 0 stations", () => valueError(() => collisionProbability(0), "stations"));
+  it("refuses fractional stations", () => valueError(() => collisionProbability(2.5), "stations"));
+  it("refuses more than 1000 stations", () => valueError(() => collisionProbability(1001), "stations"));
+  it("refuses NaN stations", () => valueError(() => collisionProbability(NaN), "stations"));
+  it("refuses text for stations", () => valueError(() => collisionProbability("ten"), "stations"));
+  it("refuses CWmin above CWmax", () => valueError(() => collisionProbability(5, 31, 15), "cwmin"));
+  it("refuses a negative CWmin", () => valueError(() => collisionProbability(5, -1), "cwmin"));
+  it("refuses a retry limit of 0 attempts", () => valueError(() => collisionProbability(5, 15, 1023, 0), "retry_limit"));
+});
+
+describe("SATURATE", () => {
+  it("equals GOODPUT for one station (OFDM, BE, no protection)", () => {
+    expect(saturationGoodputMbps(OFDM, 1, 1500)).toBeCloseTo(goodputMbps(OFDM, 1500), 9);
+  });
+
+  it("equals GOODPUT for one station (HE A-MPDU, VO, RTS/CTS)", () => {
+    expect(saturationGoodputMbps(HE, 1, 1500, "auto", "VO", "RTS")).toBeCloseTo(goodputMbps(HE, 1500, "auto", "VO", "RTS"), 9);
+  });
+
+  it("gives one station 8 × packet bytes ÷ ACCESS", () => {
+    expect(saturationGoodputMbps(OFDM, 1, 1500)).toBeCloseTo((8 * 1500) / channelAccess(OFDM, 1500).totalUs, 9);
+  });
+
+  it("falls as stations are added beyond a few", () => {
+    expect(saturationGoodputMbps(OFDM, 50, 1500)).toBeLessThan(saturationGoodputMbps(OFDM, 10, 1500));
+  });
+
+  // Bianchi 2000 §VI (basic vs RTS/CTS; section number from memory): RTS/CTS
+  // wins with long frames and many stations, since a collision then costs an RTS.
+  it("lets RTS/CTS beat basic access for one long MPDU per access and 50 stations", () => {
+    expect(saturationGoodputMbps(HE, 50, 1500, 1, "BE", "RTS")).toBeGreaterThan(saturationGoodputMbps(HE, 50, 1500, 1, "BE", "none"));
+  });
+
+  it("lets basic access beat RTS/CTS for short frames and 2 stations", () => {
+    expect(saturationGoodputMbps(OFDM, 2, 100, 1, "BE", "none")).toBeGreaterThan(saturationGoodputMbps(OFDM, 2, 100, 1, "BE", "RTS"));
+  });
+
+  it("gives the same answer from the memo as cold", () => {
+    const first = saturationGoodputMbps(OFDM, 7, 1000);
+    expect(saturationGoodputMbps(OFDM, 7, 1000)).toBe(first);
+  });
+
+  it("refuses 0 stations", () => valueError(() => saturationGoodputMbps(OFDM, 0, 1500), "stations"));
+  it("refuses more than 1000 stations", () => valueError(() => saturationGoodputMbps(OFDM, 1001, 1500), "stations"));
+  it("passes on the MAC layer's refusal of a bad access category", () => valueError(() => saturationGoodputMbps(OFDM, 5, 1500, null, "XX"), "access"));
+});
+
+describe("CONTENTION", () => {
+  it("is the mean backoff's share of ACCESS for one station", () => {
+    const a = channelAccess(OFDM, 1500);
+    expect(contentionShare(OFDM, 1, 1500)).toBeCloseTo(((15 / 2) * 9) / a.totalUs, 9); // CWmin ÷ 2 × aSlotTime (9 µs at 5 GHz)
+  });
+
+  it("grows with the number of stations", () => {
+    expect(contentionShare(OFDM, 50, 1500)).toBeGreaterThan(contentionShare(OFDM, 5, 1500));
+  });
+
+  it("stays a share for 1000 stations", () => {
+    const s = contentionShare(OFDM, 1000, 1500);
+    expect(s).toBeGreaterThan(0);
+    expect(s).toBeLessThan(1);
+  });
+});
+
+describe("EDCAMIX", () => {
+  it("gives one row per class in the order given", () => {
+    expect(edcaMix(HE, [["VO"], ["BE"]], [[2], [8]], 1500).map((r) => [r.access, r.stations])).toEqual([["VO", 2], ["BE", 8]]);
+  });
+
+  it("gives a voice station more than a best-effort one", () => {
+    const [vo, be] = edcaMix(HE, [["VO"], ["BE"]], [[2], [8]], 1500);
+    expect(vo.perStationMbps).toBeGreaterThan(be.perStationMbps);
+  });
+
+  it("divides each class's goodput among its stations", () => {
+    const [, be] = edcaMix(HE, [["VO"], ["BE"]], [[2], [8]], 1500);
+    expect(be.perStationMbps).toBeCloseTo(be.goodputMbps / 8, 12);
+  });
+
+  it("equals SATURATE for a single class", () => {
+    expect(edcaMix(OFDM, "BE", 10, 1500)[0].goodputMbps).toBeCloseTo(saturationGoodputMbps(OFDM, 10, 1500, null, "BE"), 9);
+  });
+
+  it("accepts text lists", () => {
+    expect(edcaMix(HE, "VO, BE", "2, 8", 1500)).toEqual(edcaMix(HE, [["VO", "BE"]], [[2, 8]], 1500));
+  });
+
+  it("gives a class of 0 stations a row of zeros", () => {
+    expect(edcaMix(HE, [["VI", "BE"]], [[0, 4]], 1500)[0]).toEqual({ access: "VI", stations: 0, goodputMbps: 0, perStationMbps: 0, airtimeShare: 0 });
+  });
+
+  it("keeps the airtime shares within 1", () => {
+    const total = edcaMix(HE, [["VO", "VI", "BE", "BK"]], [[1, 2, 4, 2]], 1500).reduce((s, r) => s + r.airtimeShare, 0);
+    expect(total).toBeLessThan(1);
+  });
+
+  it("does not change its ranges", () => {
+    const acs = [["VO"], ["BE"]];
+    const ns = [[2], [8]];
+    edcaMix(HE, acs, ns, 1500);
+    expect([acs, ns]).toEqual([[["VO"], ["BE"]], [[2], [8]]]);
+  });
+
+  it("refuses ranges of different sizes", () => valueError(() => edcaMix(HE, [["VO"], ["BE"]], [[2]], 1500), "counts"));
+  it("refuses an unknown access category", () => valueError(() => edcaMix(HE, [["VO"], ["XX"]], [[2], [3]], 1500), "access_list"));
+  it("refuses a fractional count", () => valueError(() => edcaMix(HE, "VO, BE", [[2, 1.5]], 1500), "counts"));
+  it("refuses a negative count", () => valueError(() => edcaMix(HE, "VO, BE", [[2, -1]], 1500), "counts"));
+  it("refuses counts that add up to 0", () => valueError(() => edcaMix(HE, "VO, BE", [[0, 0]], 1500), "counts"));
+  it("refuses counts that add up to more than 1000", () => valueError(() => edcaMix(HE, "VO, BE", [[600, 600]], 1500), "counts"));
+  it("refuses a missing access list", () => valueError(() => edcaMix(HE, null, [[2]], 1500), "access_list"));
+});
