@@ -1,0 +1,10 @@
+/**
+ * Site budget: cells and access points, beacon airtime, client airtime
+ * shares and radios needed. Planning estimates, not a replacement for a site
+ * survey.
+ */
+export { coverageAps, hexagonAreaM2, DEFAULT_OVERLAP_SHARE } from "./coverage";
+export { radios, DEFAULT_MAX_UTILIZATION } from "./radios";
+export { beaconLoad, beaconAirtime, TU_us, DEFAULT_BEACON_BYTES, DEFAULT_BEACON_LINK, DEFAULT_INTERVAL_TU, BEACON_ACCESS, BEACON_MAC_OPTIONS } from "./beacon";
+export type { BeaconAirtime } from "./beacon";
+export { clientShare, mixShare, DEFAULT_PACKET_BYTES, DEFAULT_STATIONS } from "./share";

@@ -1,0 +1,141 @@
+/**
+ * CLIENTSHARE and MIXSHARE: the airtime a client, or a mix of clients, needs
+ * to carry its demand. The goodput comes from the MAC (GOODPUT) and the
+ * contention model (SATURATE); this file adds no model of its own.
+ */
+import { describe, finiteNumber, isMissing } from "../args";
+import { AirtallyError, invalid } from "../errors";
+import { goodputMbps } from "../mac/index";
+import { saturationGoodputMbps } from "../contention/index";
+import { asLink } from "../phy/index";
+import type { MbPerSecond, Share } from "../units";
+import { nonNegative, optionalNumber } from "../rf/_lib";
+
+/** Catalog defaults (DESIGN.md §2). */
+export const DEFAULT_PACKET_BYTES = 1500;
+export const DEFAULT_STATIONS = 1;
+
+function readStations(stations: unknown): number {
+  const n = optionalNumber("stations", stations, DEFAULT_STATIONS);
+  if (!Number.isInteger(n) || n < 1) invalid(`stations: must be a whole number of contending stations, 1 or more, got ${n}`);
+  return n;
+}
+
+/**
+ * The goodput one channel delivers on this link, Mb/s: with one station,
+ * GOODPUT (one station alone, mpdus "auto", no protection, no loss); with
+ * more, SATURATE — the aggregate goodput of `stations` identical saturated
+ * stations on that link, i.e. what the channel carries at that link once
+ * contention (idle backoff and collisions) is paid.
+ */
+function channelGoodputMbps(link: unknown, packetBytes: unknown, stations: number, access: unknown, macOptions: unknown): MbPerSecond {
+  return stations === 1
+    ? goodputMbps(link, packetBytes, null, access, null, null, macOptions)
+    : saturationGoodputMbps(link, stations, packetBytes, null, access, null, macOptions);
+}
+
+/**
+ * CLIENTSHARE: share of a channel's airtime one client needs to carry
+ * `demand_mbps` on `link`: demand ÷ channel goodput at that link (above).
+ * A share above 1 means the demand needs more than one channel; it is kept,
+ * never clamped (DESIGN.md §4).
+ *
+ * Example: clientShare(link, 10) with GOODPUT(link, 1500) = 40 Mb/s → 0.25.
+ */
+export function clientShare(
+  link: unknown,
+  demandMbps: unknown,
+  packetBytes?: unknown,
+  stations?: unknown,
+  access?: unknown,
+  macOptions?: unknown,
+): Share {
+  const demand = nonNegative("demand_mbps", finiteNumber("demand_mbps", demandMbps), "Mb/s");
+  const bytes = isMissing(packetBytes) ? DEFAULT_PACKET_BYTES : packetBytes;
+  const capacity = channelGoodputMbps(link, bytes, readStations(stations), access, macOptions);
+  if (!(capacity > 0)) invalid(`link: ${asLink(link).text} delivers no goodput with these settings`);
+  return demand / capacity;
+}
+
+/** Cells of a range (any[][]), a row, or a single value, in reading order. */
+function cellsOf(value: unknown): unknown[] {
+  if (!Array.isArray(value)) return [value];
+  const cells: unknown[] = [];
+  for (const row of value) {
+    if (Array.isArray(row)) cells.push(...row);
+    else cells.push(row);
+  }
+  return cells;
+}
+
+function isBlank(cell: unknown): boolean {
+  return isMissing(cell) || (typeof cell === "string" && cell.trim() === "");
+}
+
+/** A count or demand cell: blank → 0, else a finite number ≥ 0. */
+function amount(name: string, item: number, cell: unknown): number {
+  if (isBlank(cell)) return 0;
+  if (typeof cell !== "number" || !Number.isFinite(cell) || cell < 0) {
+    invalid(`${name}: item ${item} must be a number 0 or more, got ${describe(cell)}`);
+  }
+  return cell;
+}
+
+/** Errors about one row's link name the row ("links: item 3: link: …"); others (packet_bytes…) pass unchanged. */
+function forItem<T>(item: number, fn: () => T): T {
+  try {
+    return fn();
+  } catch (e) {
+    if (!(e instanceof AirtallyError) || !e.message.startsWith("link:")) throw e;
+    throw new AirtallyError(e.kind, `links: item ${item}: ${e.message}`);
+  }
+}
+
+/**
+ * MIXSHARE: total airtime share of a client mix, Σ count × CLIENTSHARE(link,
+ * demand, packet_bytes, stations) over three ranges of the same number of
+ * cells (any shape; read row by row): link text, client count, demand per
+ * client in Mb/s. Counts may be fractional (average active clients).
+ *
+ * A row whose link cell is blank is skipped when its count and demand are
+ * blank or 0 too; a blank link with a count and demand is refused (a client
+ * class with no link is a mistake, not nothing). `stations` omitted → 1, as
+ * in CLIENTSHARE. Mismatched ranges → #VALUE!.
+ *
+ * Example: links {A; B}, counts {10; 2}, demands {2; 20} →
+ * 10 × CLIENTSHARE(A, 2) + 2 × CLIENTSHARE(B, 20).
+ */
+export function mixShare(
+  links: unknown,
+  counts: unknown,
+  demandsMbps: unknown,
+  packetBytes?: unknown,
+  stations?: unknown,
+): Share {
+  const linkCells = cellsOf(links);
+  const countCells = cellsOf(counts);
+  const demandCells = cellsOf(demandsMbps);
+  if (countCells.length !== linkCells.length) {
+    invalid(`counts: has ${countCells.length} cells but links has ${linkCells.length}; the three ranges must have the same number of cells`);
+  }
+  if (demandCells.length !== linkCells.length) {
+    invalid(`demands_mbps: has ${demandCells.length} cells but links has ${linkCells.length}; the three ranges must have the same number of cells`);
+  }
+  const nStations = readStations(stations);
+  let total = 0;
+  for (let i = 0; i < linkCells.length; i++) {
+    const item = i + 1;
+    const count = amount("counts", item, countCells[i]);
+    const demand = amount("demands_mbps", item, demandCells[i]);
+    if (isBlank(linkCells[i])) {
+      if (count > 0 && demand > 0) invalid(`links: item ${item} is empty but counts and demands_mbps give ${count} clients at ${demand} Mb/s; fill in the link or clear the row`);
+      continue;
+    }
+    if (count === 0 || demand === 0) {
+      forItem(item, () => asLink(linkCells[i])); // still catch a mistyped link
+      continue;
+    }
+    total += count * forItem(item, () => clientShare(linkCells[i], demand, packetBytes, nStations));
+  }
+  return total;
+}

@@ -1,0 +1,163 @@
+/**
+ * Path loss: free space (Friis) and the ITU-R P.1238 site-general indoor
+ * model, plus its inverse (REACH).
+ *
+ * Results are planning estimates, not a replacement for a site survey:
+ * walls, furniture, people and antenna patterns move real levels by many dB.
+ * Transmit power, EIRP and channels are regulated and vary by country, and
+ * RF exposure limits protect people; local regulations, codes and licensed
+ * practice decide. These functions never choose a power: the EIRP is the
+ * user's own input.
+ */
+import { finiteNumber } from "../args";
+import { invalid } from "../errors";
+import type { Db, Dbm, MHz, Meters } from "../units";
+import { nonNegative, optionalNumber, positive, wholeNonNegative } from "./_lib";
+
+/** Speed of light in vacuum, m/s (exact by the SI definition of the metre). */
+export const SPEED_OF_LIGHT_m_per_s = 299_792_458;
+
+/**
+ * Free-space path loss, dB (Friis transmission equation with isotropic
+ * antennas): FSPL = 20·log10(4π·d·f ÷ c), d in m, f in Hz.
+ * With d in m and f in MHz this is 20·log10(d) + 20·log10(f) − 27.55 dB
+ * (20·log10(4π·1e6 ÷ c) = −27.55).
+ *
+ * Planning estimate only (see the module note): local regulations, codes and
+ * licensed practice decide.
+ *
+ * Example: fsplDb(10, 2437) → 60.18 dB.
+ */
+export function fsplDb(distanceM: unknown, freqMHz: unknown): Db {
+  const d = positive("distance_m", finiteNumber("distance_m", distanceM), "m");
+  const f = positive("freq_mhz", finiteNumber("freq_mhz", freqMHz), "MHz");
+  return 20 * Math.log10((4 * Math.PI * d * f * 1e6) / SPEED_OF_LIGHT_m_per_s);
+}
+
+/**
+ * ITU-R P.1238-7 (02/2012) §3.1, site-general model, eq. (1):
+ *   L_total = 20·log10(f) + N·log10(d) + L_f(n) − 28   dB
+ * f in MHz, d in m with d > 1 m (at d = 1 m the distance term is 0, so we
+ * accept d ≥ 1 m), N the distance power loss coefficient, L_f(n) the floor
+ * penetration loss factor for n floors between the stations (L_f = 0 for
+ * n = 0). That edition covers 900 MHz to 100 GHz.
+ */
+export const P1238_EDITION = "ITU-R P.1238-7 (02/2012)";
+/** The constant of eq. (1), dB. */
+export const P1238_CONSTANT_dB: Db = -28;
+/** Frequency range of the edition, MHz (its title: 900 MHz to 100 GHz). */
+export const P1238_MIN_FREQ_MHz: MHz = 900;
+export const P1238_MAX_FREQ_MHz: MHz = 100_000;
+/** The model holds from 1 m (eq. (1): d > 1 m). */
+export const P1238_MIN_DISTANCE_m: Meters = 1;
+
+/** Catalog defaults (DESIGN.md §2): N = 30 and 15 dB per floor, P.1238-7's office values at 1.8–2 GHz. */
+export const DEFAULT_DISTANCE_POWER = 30;
+export const DEFAULT_FLOOR_LOSS_dB: Db = 15;
+
+/** The model's arguments after checks. */
+interface IndoorModel {
+  readonly freqMHz: MHz;
+  readonly distancePower: number;
+  readonly floors: number;
+  readonly floorLossDb: Db;
+}
+
+function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, floorLossDb: unknown): IndoorModel {
+  const f = finiteNumber("freq_mhz", freqMHz);
+  if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) {
+    invalid(`freq_mhz: ${P1238_EDITION} covers ${P1238_MIN_FREQ_MHz} to ${P1238_MAX_FREQ_MHz} MHz, got ${f}`);
+  }
+  const n = optionalNumber("distance_power", distancePower, DEFAULT_DISTANCE_POWER);
+  if (!(n > 0 && n <= 100)) invalid(`distance_power: the coefficient N must be above 0 and at most 100 (P.1238 tables give 17–33), got ${n}`);
+  return {
+    freqMHz: f,
+    distancePower: n,
+    floors: wholeNonNegative("floors", optionalNumber("floors", floors, 0)),
+    floorLossDb: nonNegative("floor_loss_db", optionalNumber("floor_loss_db", floorLossDb, DEFAULT_FLOOR_LOSS_dB), "dB"),
+  };
+}
+
+/**
+ * L_f(n) from the catalog's single per-floor figure: n × floor_loss_db.
+ * Our choice: P.1238's own L_f(n) is not linear in n (office 1.8–2 GHz:
+ * 15 + 4(n − 1)), and one argument cannot carry every table row; a constant
+ * loss per floor is the simplest rule that an auditor can recompute, and it
+ * errs towards more loss (shorter reach, more access points). For the
+ * recommendation's value at n floors, read p1238Coefficients(...) and pass
+ * floors = 1 with floor_loss_db = L_f(n).
+ */
+function floorPenetrationDb(model: IndoorModel): Db {
+  return model.floors * model.floorLossDb;
+}
+
+/** 20·log10(f) − 28 + L_f(n): every term of eq. (1) except the distance term, dB. */
+function lossAtOneMetreDb(model: IndoorModel): Db {
+  return 20 * Math.log10(model.freqMHz) + P1238_CONSTANT_dB + floorPenetrationDb(model);
+}
+
+/**
+ * INDOORLOSS: ITU-R P.1238-7 site-general indoor path loss, dB (eq. (1)
+ * above) with L_f(n) = floors × floor_loss_db.
+ *
+ * Planning estimate only (see the module note): not a replacement for a site
+ * survey; local regulations, codes and licensed practice decide.
+ *
+ * Example: indoorLossDb(20, 5200) → 20·log10(5200) − 28 + 30·log10(20) = 85.35 dB.
+ */
+export function indoorLossDb(
+  distanceM: unknown,
+  freqMHz: unknown,
+  distancePower?: unknown,
+  floors?: unknown,
+  floorLossDb?: unknown,
+): Db {
+  const d = finiteNumber("distance_m", distanceM);
+  if (d < P1238_MIN_DISTANCE_m) invalid(`distance_m: the P.1238 model holds from ${P1238_MIN_DISTANCE_m} m, got ${d}`);
+  const model = readModel(freqMHz, distancePower, floors, floorLossDb);
+  return lossAtOneMetreDb(model) + model.distancePower * Math.log10(d);
+}
+
+/**
+ * REACH: the distance, m, at which the received level falls to `target_dbm`
+ * under INDOORLOSS — eq. (1) solved for d:
+ *   target = eirp + rx_gain − L_total(d)
+ *   d = 10^((eirp + rx_gain − target − 20·log10(f) + 28 − L_f(n)) ÷ N)
+ * When the target is above the level received at 1 m (where the model
+ * starts), there is no distance: #VALUE! ("target_dbm above the signal at 1 m").
+ *
+ * The EIRP is the user's figure; this function does not check it against any
+ * regulatory limit and never proposes a power. Planning estimate only: not a
+ * replacement for a site survey; local regulations, codes and licensed
+ * practice decide.
+ *
+ * Example: reachM(20, -67, 5200) → 10^((20 + 67 − 74.32 + 28) ÷ 30) = 22.7 m.
+ */
+export function reachM(
+  eirpDbm: unknown,
+  targetDbm: unknown,
+  freqMHz: unknown,
+  distancePower?: unknown,
+  floors?: unknown,
+  floorLossDb?: unknown,
+  rxGainDbi?: unknown,
+): Meters {
+  const eirp: Dbm = finiteNumber("eirp_dbm", eirpDbm);
+  const target: Dbm = finiteNumber("target_dbm", targetDbm);
+  const model = readModel(freqMHz, distancePower, floors, floorLossDb);
+  const rxGain: Db = optionalNumber("rx_gain_dbi", rxGainDbi, 0);
+  const atOneMetre: Dbm = eirp + rxGain - lossAtOneMetreDb(model);
+  if (target > atOneMetre) {
+    invalid(
+      `target_dbm: ${target} dBm is above the signal at 1 m (${round2(atOneMetre)} dBm from eirp_dbm ${eirp}, ` +
+        `rx_gain_dbi ${rxGain} and the loss at 1 m); the model starts at 1 m, so use a lower target or a higher EIRP within your local limits`,
+    );
+  }
+  const d = Math.pow(10, (atOneMetre - target) / model.distancePower);
+  if (!Number.isFinite(d)) invalid(`target_dbm: the distance overflows (${eirp} − ${target} dB over N = ${model.distancePower}); check the arguments`);
+  return d;
+}
+
+function round2(x: number): number {
+  return Math.round(x * 100) / 100;
+}

@@ -1,0 +1,127 @@
+import { fsplDb, indoorLossDb, reachM } from "../../../src/core/rf/index";
+import { AirtallyError } from "../../../src/core/errors";
+
+/** Expect an AirtallyError of `kind` whose message starts with the argument name. */
+function expectRefusal(fn: () => unknown, kind: "value" | "na", argument: string): void {
+  try {
+    fn();
+  } catch (e) {
+    expect(e).toBeInstanceOf(AirtallyError);
+    expect((e as AirtallyError).kind).toBe(kind);
+    expect((e as AirtallyError).message.startsWith(`${argument}:`)).toBe(true);
+    return;
+  }
+  throw new Error("expected a refusal");
+}
+
+describe("FSPL (Friis)", () => {
+  it("gives 40.05 dB at 1 m and 2400 MHz", () => {
+    // Friis: FSPL = 20·log10(4π·d ÷ λ), λ = c ÷ f = 299 792 458 ÷ 2.4e9 = 0.124913524 m
+    expect(fsplDb(1, 2400)).toBeCloseTo(20 * Math.log10((4 * Math.PI * 1) / 0.124913524), 6);
+  });
+
+  it("agrees with the textbook form 20·log10(d) + 20·log10(f_MHz) − 27.55 within its rounding", () => {
+    // 30 m at 5180 MHz: 29.54 + 74.29 − 27.55 = 76.28 dB (Friis in dB with d in m, f in MHz)
+    expect(fsplDb(30, 5180)).toBeCloseTo(20 * Math.log10(30) + 20 * Math.log10(5180) - 27.55, 2);
+  });
+
+  it("adds 6.02 dB per doubling of distance", () => {
+    // inverse-square law: 20·log10(2) = 6.0206 dB
+    expect(fsplDb(20, 5500) - fsplDb(10, 5500)).toBeCloseTo(6.0206, 4);
+  });
+
+  it("refuses a negative distance", () => {
+    expectRefusal(() => fsplDb(-1, 2400), "value", "distance_m");
+  });
+
+  it("refuses a zero frequency", () => {
+    expectRefusal(() => fsplDb(10, 0), "value", "freq_mhz");
+  });
+
+  it("refuses text for the distance", () => {
+    expectRefusal(() => fsplDb("ten", 2400), "value", "distance_m");
+  });
+});
+
+describe("INDOORLOSS (ITU-R P.1238-7 site-general model, eq. (1))", () => {
+  it("uses the catalog defaults N = 30 and no floors: 2400 MHz, 10 m", () => {
+    // L = 20·log10(2400) + 30·log10(10) + 0 − 28 = 67.604 + 30 − 28 = 69.604 dB
+    expect(indoorLossDb(10, 2400)).toBeCloseTo(67.604 + 30 - 28, 3);
+  });
+
+  it("matches a hand value with the office coefficients at 5.2 GHz, one floor", () => {
+    // P.1238-7 Table 2 office 5.2 GHz N = 31, Table 3 office 5.2 GHz L_f = 16 dB (1 floor) — table values from memory
+    // L = 20·log10(5200) + 31·log10(20) + 16 − 28 = 74.3201 + 40.3319 + 16 − 28 = 102.652 dB
+    expect(indoorLossDb(20, 5200, 31, 1, 16)).toBeCloseTo(74.3201 + 40.3319 + 16 - 28, 3);
+  });
+
+  it("counts floor_loss_db once per floor", () => {
+    // L_f(n) = n × floor_loss_db (our documented rule): 2 floors × 15 dB on top of 69.604 dB
+    expect(indoorLossDb(10, 2400, null, 2, null)).toBeCloseTo(67.604 + 30 - 28 + 2 * 15, 3);
+  });
+
+  it("treats empty optional arguments as the defaults", () => {
+    expect(indoorLossDb(10, 2400, "", "", "")).toBe(indoorLossDb(10, 2400));
+  });
+
+  it("equals the frequency term at 1 m, where the distance term vanishes", () => {
+    // 20·log10(2400) − 28 = 39.604 dB
+    expect(indoorLossDb(1, 2400)).toBeCloseTo(67.604 - 28, 3);
+  });
+
+  it("refuses a distance below 1 m, where the model does not hold", () => {
+    expectRefusal(() => indoorLossDb(0.5, 2400), "value", "distance_m");
+  });
+
+  it("refuses a negative distance", () => {
+    expectRefusal(() => indoorLossDb(-5, 2400), "value", "distance_m");
+  });
+
+  it("refuses a frequency outside the edition's 900 MHz–100 GHz", () => {
+    expectRefusal(() => indoorLossDb(10, 433), "value", "freq_mhz");
+  });
+
+  it("refuses a fractional floor count", () => {
+    expectRefusal(() => indoorLossDb(10, 2400, 30, 1.5), "value", "floors");
+  });
+
+  it("refuses a zero distance power coefficient", () => {
+    expectRefusal(() => indoorLossDb(10, 2400, 0), "value", "distance_power");
+  });
+});
+
+describe("REACH (INDOORLOSS solved for distance)", () => {
+  it("matches the hand inversion of eq. (1)", () => {
+    // d = 10^((eirp + rx_gain − target − 20·log10 f + 28 − L_f) ÷ N)
+    //   = 10^((20 + 2 + 65 − 74.3201 + 28 − 16) ÷ 31) = 10^0.79613 = 6.2536 m
+    expect(reachM(20, -65, 5200, 31, 1, 16, 2)).toBeCloseTo(6.2536, 3);
+  });
+
+  it("round-trips with INDOORLOSS: the loss at the reach is eirp + rx_gain − target", () => {
+    const d = reachM(20, -65, 5200, 31, 1, 16, 2);
+    expect(indoorLossDb(d, 5200, 31, 1, 16)).toBeCloseTo(20 + 2 - -65, 9);
+  });
+
+  it("round-trips with the defaults at 2.4 GHz", () => {
+    const d = reachM(17, -70, 2437);
+    expect(indoorLossDb(d, 2437)).toBeCloseTo(17 - -70, 9);
+  });
+
+  it("returns 1 m when the target is exactly the signal at 1 m", () => {
+    // at 1 m the loss is 20·log10(f) − 28; 2400 MHz: 39.604 dB
+    expect(reachM(10, 10 - (20 * Math.log10(2400) - 28), 2400)).toBeCloseTo(1, 9);
+  });
+
+  it("refuses a target above the EIRP", () => {
+    expectRefusal(() => reachM(20, 25, 5200), "value", "target_dbm");
+  });
+
+  it("refuses a target above the signal at 1 m", () => {
+    // signal at 1 m: 20 − (74.32 − 28) = −26.32 dBm
+    expectRefusal(() => reachM(20, -26, 5200), "value", "target_dbm");
+  });
+
+  it("refuses text for the EIRP", () => {
+    expectRefusal(() => reachM("20 dBm", -65, 5200), "value", "eirp_dbm");
+  });
+});
