@@ -9,3 +9,9 @@ export { parseLink, formatLink, canonicalLink, buildLink, FAMILIES, NON_HT_FAMIL
 export type { Link, Family, BandGHz, Coding } from "./link";
 export * as phy from "./phy/index";
 export { rateMbps, txtime, txtimeUs, psduFit, sensitivityDbm, maxPsduBytes, txtimeTable } from "./phy/index";
+export { breakdownTable, edcaMixTable } from "./audit";
+export type { SpillRow } from "./audit";
+export * as mac from "./mac/index";
+export * as contention from "./contention/index";
+export * as rf from "./rf/index";
+export * as budget from "./budget/index";

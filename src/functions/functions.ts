@@ -8,6 +8,11 @@
  * arguments go at the end.
  */
 import * as core from "../core/index";
+import * as mac from "../core/mac/index";
+import * as contention from "../core/contention/index";
+import * as rf from "../core/rf/index";
+import * as budget from "../core/budget/index";
+import { breakdownTable, edcaMixTable } from "../core/audit";
 import { arrayCell, numberCell, textCell } from "./errors";
 
 /**
@@ -31,6 +36,47 @@ enum PhyFamily {
   HE = "HE",
   /** EHT (802.11be) */
   EHT = "EHT",
+}
+
+/**
+ * EDCA access categories (IEEE 802.11-2020 10.2.3) and legacy DCF access.
+ * @customenum {string}
+ */
+enum AccessCategory {
+  /** Background */
+  BK = "BK",
+  /** Best effort (default) */
+  BE = "BE",
+  /** Video */
+  VI = "VI",
+  /** Voice */
+  VO = "VO",
+  /** Legacy DCF: DIFS, the PHY's CWmin/CWmax, no TXOP */
+  DCF = "DCF",
+}
+
+/**
+ * Protection before the data frame.
+ * @customenum {string}
+ */
+enum ProtectionMode {
+  /** No protection */
+  none = "none",
+  /** RTS/CTS exchange */
+  RTS = "RTS",
+  /** CTS-to-self */
+  CTS = "CTS",
+}
+
+/**
+ * How lost MPDUs of a burst are sent again.
+ * @customenum {string}
+ */
+enum RetransmissionMode {
+  /** Block ack: only the lost MPDUs go again */
+  selective = "selective",
+  /** No block ack: the whole burst goes again */
+  whole = "whole",
 }
 
 /**
@@ -117,4 +163,495 @@ export function sensitivity(link: string): number {
  */
 export function txtimeparts(link: string, psdu_bytes: number): any[][] {
   return arrayCell(() => core.txtimeTable(link, psdu_bytes));
+}
+
+// ---------------------------------------------------------------- MAC
+
+/**
+ * MPDU length for one network-layer packet: QoS data header, LLC/SNAP, security header and MIC, FCS; A-MSDU subframes with AMSDU=n.
+ * @customfunction MPDU
+ * @param packet_bytes Network-layer packet, e.g. a 1500-byte IP datagram (bytes)
+ * @param [mac_options] MAC settings text: CCMP-128 (default), CCMP-256, GCMP-128, GCMP-256, open; AMSDU=n; HTC; DCF (non-QoS header)
+ * @returns MPDU length (bytes)
+ * @example =AIRTALLY.MPDU(1500)
+ * @example =AIRTALLY.MPDU(1500, "AMSDU=2 GCMP-256")
+ * @remarks IEEE Std 802.11-2020 9.2 (MAC header, FCS), 9.3.2 (QoS Data), 12.5 (CCMP/GCMP header and MIC), 9.3.2.2 (A-MSDU subframes); LLC/SNAP per IEEE Std 802.2.
+ * @helpurl https://localhost:3000/help/mpdu.html
+ */
+export function mpdu(packet_bytes: number, mac_options?: string): number {
+  return numberCell(() => mac.mpduBytes(packet_bytes, mac_options));
+}
+
+/**
+ * A-MPDU length: MPDU delimiters and padding to 4-byte boundaries.
+ * @customfunction AMPDU
+ * @param mpdu_bytes Length of each MPDU (bytes)
+ * @param count MPDUs in the A-MPDU (count)
+ * @returns A-MPDU length (bytes)
+ * @example =AIRTALLY.AMPDU(1550, 64)
+ * @remarks IEEE Std 802.11-2020 9.7 (A-MPDU format: 4-octet delimiter, subframes padded to a multiple of 4 octets except the last).
+ * @helpurl https://localhost:3000/help/ampdu.html
+ */
+export function ampdu(mpdu_bytes: number, count: number): number {
+  return numberCell(() => mac.ampduBytes(mpdu_bytes, count));
+}
+
+/**
+ * MPDUs in one A-MPDU under every limit at once: block ack window, maximum A-MPDU length, maximum PPDU time and TXOP limit.
+ * @customfunction AGGCOUNT
+ * @param link Link text (text)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [mac_options] MAC settings text (BA=n, AMPDU=n, TXOP=n, AMSDU=n, cipher…)
+ * @returns MPDUs per A-MPDU (count); 1 for families without A-MPDU
+ * @example =AIRTALLY.AGGCOUNT("VHT MCS9 2SS 80MHz", 1500)
+ * @example =AIRTALLY.AGGCOUNT("HT MCS7 20MHz", 1500, "VO")
+ * @remarks aPPDUMaxTime 5484 µs (IEEE Std 802.11-2020 Tables 19-25 and 21-28), maximum A-MPDU length from the exponent (9.4.2.55, 9.4.2.157), TXOP limits of Table 9-155.
+ * @helpurl https://localhost:3000/help/aggcount.html
+ */
+export function aggcount(link: string, packet_bytes: number, access?: AccessCategory, mac_options?: string): number {
+  return numberCell(() => mac.aggCount(link, packet_bytes, access, mac_options));
+}
+
+/**
+ * AIFS of an access category on a PHY and band: SIFS + AIFSN × slot time.
+ * @customfunction AIFS
+ * @param access Access category BK, BE, VI, VO or DCF
+ * @param [link] Link text fixing PHY and band; default an OFDM link at 5 GHz
+ * @param [mac_options] MAC settings text (AP, AIFSN=n, SLOT=9|20)
+ * @returns AIFS (µs)
+ * @example =AIRTALLY.AIFS("BE")
+ * @example =AIRTALLY.AIFS("VO", "ERP-OFDM 54Mbps 2.4GHz")
+ * @remarks AIFS[AC] = AIFSN[AC] × aSlotTime + aSIFSTime (IEEE Std 802.11-2020 10.2.3.2; default AIFSN from Table 9-155).
+ * @helpurl https://localhost:3000/help/aifs.html
+ */
+export function aifs(access: AccessCategory, link?: string, mac_options?: string): number {
+  return numberCell(() => mac.aifsUs(access, link, mac_options));
+}
+
+/**
+ * Airtime of one uncontended channel access: AIFS, mean backoff, protection, PPDU, SIFS and Ack or BlockAck.
+ * @customfunction ACCESS
+ * @param link Link text (text)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default: AGGCOUNT)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [protection] none (default), RTS or CTS (CTS-to-self)
+ * @param [mac_options] MAC settings text
+ * @returns Airtime of one channel access (µs)
+ * @example =AIRTALLY.ACCESS("ERP-OFDM 54Mbps 2.4GHz", 1500)
+ * @example =AIRTALLY.ACCESS("HE MCS11 2SS 80MHz", 1500, "auto", "BE", "RTS")
+ * @remarks Mean initial backoff CWmin ÷ 2 slots (IEEE Std 802.11-2020 10.23.2); control responses at the highest basic rate not above the data's (non-HT reference) rate (10.6.6.5). An RTS/CTS or CTS-to-self exchange in a non-HT PPDU is also what a receiver in dynamic SM power save needs to wake its extra chains (11.2.6).
+ * @helpurl https://localhost:3000/help/access.html
+ */
+export function access(
+  link: string,
+  packet_bytes: number,
+  mpdus?: any,
+  access?: AccessCategory,
+  protection?: ProtectionMode,
+  mac_options?: string,
+): number {
+  return numberCell(() => mac.channelAccess(link, packet_bytes, mpdus, access, protection, mac_options).totalUs);
+}
+
+/**
+ * Packet-layer goodput of one station alone on the channel, with selective retransmission of lost MPDUs.
+ * @customfunction GOODPUT
+ * @param link Link text (text)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [protection] none (default), RTS or CTS
+ * @param [mpdu_loss] Probability that an MPDU is lost (0 to below 1), default 0
+ * @param [mac_options] MAC settings text
+ * @returns Goodput of packet bytes (Mb/s)
+ * @example =AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz", 1500)
+ * @example =AIRTALLY.GOODPUT("VHT MCS9 2SS 80MHz", 1500, "auto", "BE", "none", 0.1)
+ * @remarks Packet bits per access ÷ ACCESS. With block ack, lost MPDUs ride in later A-MPDUs, so (1 − p) of the MPDU slots carry new data; without A-MPDU the whole frame is sent again until acknowledged.
+ * @helpurl https://localhost:3000/help/goodput.html
+ */
+export function goodput(
+  link: string,
+  packet_bytes: number,
+  mpdus?: any,
+  access?: AccessCategory,
+  protection?: ProtectionMode,
+  mpdu_loss?: number,
+  mac_options?: string,
+): number {
+  return numberCell(() => mac.goodputMbps(link, packet_bytes, mpdus, access, protection, mpdu_loss, mac_options));
+}
+
+/**
+ * GOODPUT as a share of the PHY data rate.
+ * @customfunction EFFICIENCY
+ * @param link Link text (text)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [protection] none (default), RTS or CTS
+ * @param [mpdu_loss] Probability that an MPDU is lost (0 to below 1), default 0
+ * @param [mac_options] MAC settings text
+ * @returns GOODPUT ÷ RATE (share 0..1)
+ * @example =AIRTALLY.EFFICIENCY("HT MCS7 20MHz", 1500, 1)
+ * @example =AIRTALLY.EFFICIENCY("HT MCS7 20MHz", 1500)
+ * @remarks Same model as GOODPUT.
+ * @helpurl https://localhost:3000/help/efficiency.html
+ */
+export function efficiency(
+  link: string,
+  packet_bytes: number,
+  mpdus?: any,
+  access?: AccessCategory,
+  protection?: ProtectionMode,
+  mpdu_loss?: number,
+  mac_options?: string,
+): number {
+  return numberCell(() => mac.efficiency(link, packet_bytes, mpdus, access, protection, mpdu_loss, mac_options));
+}
+
+/**
+ * Expected PPDUs until every MPDU of a burst is delivered.
+ * @customfunction RETX
+ * @param mpdus MPDUs in the burst (count)
+ * @param mpdu_loss Probability that an MPDU is lost (0 to below 1)
+ * @param [mode] selective (block ack, default) or whole (the whole burst again)
+ * @returns Expected number of PPDUs (count)
+ * @example =AIRTALLY.RETX(64, 0.1)
+ * @example =AIRTALLY.RETX(64, 0.1, "whole")
+ * @remarks selective: E[max of N geometric counts] = Σ_{k≥0} (1 − (1 − p^k)^N); whole: 1 ÷ (1 − p)^N. Losses independent.
+ * @helpurl https://localhost:3000/help/retx.html
+ */
+export function retx(mpdus: number, mpdu_loss: number, mode?: RetransmissionMode): number {
+  return numberCell(() => mac.expectedTransmissions(mpdus, mpdu_loss, mode));
+}
+
+// ---------------------------------------------------------------- Contention
+
+/**
+ * Conditional collision probability p of Bianchi's saturation model with a finite retry limit.
+ * @customfunction COLLIDE
+ * @param stations Saturated stations sharing the channel (count, 1–1000)
+ * @param [cwmin] CWmin (slots), default 15
+ * @param [cwmax] CWmax (slots), default 1023
+ * @param [retry_limit] Retry limit (count), default 7
+ * @returns Collision probability of a transmission attempt (share 0..1)
+ * @example =AIRTALLY.COLLIDE(10)
+ * @example =AIRTALLY.COLLIDE(50, 31, 1023, 7)
+ * @remarks G. Bianchi, "Performance analysis of the IEEE 802.11 distributed coordination function", IEEE JSAC 18(3), 2000, with the finite-retry extension cited in the model's source.
+ * @helpurl https://localhost:3000/help/collide.html
+ */
+export function collide(stations: number, cwmin?: number, cwmax?: number, retry_limit?: number): number {
+  return numberCell(() => contention.collisionProbability(stations, cwmin, cwmax, retry_limit));
+}
+
+/**
+ * Aggregate goodput of identical saturated stations sharing one channel.
+ * @customfunction SATURATE
+ * @param link Link text (text)
+ * @param stations Saturated stations (count, 1–1000)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [protection] none (default), RTS or CTS
+ * @param [mac_options] MAC settings text
+ * @returns Aggregate goodput of packet bytes (Mb/s)
+ * @example =AIRTALLY.SATURATE("OFDM 54Mbps 5GHz", 10, 1500)
+ * @example =AIRTALLY.SATURATE("HE MCS7 1SS 20MHz", 20, 1500, "auto", "BE", "RTS")
+ * @remarks Bianchi's saturation model (IEEE JSAC 18(3), 2000) with EDCA timing: AIFS in place of DIFS, success and collision times from one channel access (ACCESS) with aggregation and protection.
+ * @helpurl https://localhost:3000/help/saturate.html
+ */
+export function saturate(
+  link: string,
+  stations: number,
+  packet_bytes: number,
+  mpdus?: any,
+  access?: AccessCategory,
+  protection?: ProtectionMode,
+  mac_options?: string,
+): number {
+  return numberCell(() => contention.saturationGoodputMbps(link, stations, packet_bytes, mpdus, access, protection, mac_options));
+}
+
+/**
+ * Share of airtime spent on idle backoff slots and collisions when identical stations contend.
+ * @customfunction CONTENTION
+ * @param link Link text (text)
+ * @param stations Saturated stations (count, 1–1000)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [protection] none (default), RTS or CTS
+ * @param [mac_options] MAC settings text
+ * @returns Share of airtime in backoff and collisions (share 0..1)
+ * @example =AIRTALLY.CONTENTION("OFDM 54Mbps 5GHz", 10, 1500)
+ * @remarks Same model as SATURATE.
+ * @helpurl https://localhost:3000/help/contention.html
+ */
+export function contentionshare(
+  link: string,
+  stations: number,
+  packet_bytes: number,
+  mpdus?: any,
+  access?: AccessCategory,
+  protection?: ProtectionMode,
+  mac_options?: string,
+): number {
+  return numberCell(() => contention.contentionShare(link, stations, packet_bytes, mpdus, access, protection, mac_options));
+}
+
+/**
+ * Saturated stations of several access categories sharing one channel; spills one row per class.
+ * @customfunction EDCAMIX
+ * @param link Link text (text)
+ * @param access_list Access categories, one per class: a range or text such as "VO, BE"
+ * @param counts Stations per class (count), a range the same size as access_list
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default)
+ * @param [protection] none (default), RTS or CTS
+ * @param [mac_options] MAC settings text
+ * @returns One row per class: access category, stations, aggregate goodput (Mb/s), goodput per station (Mb/s), share of airtime (0..1)
+ * @example =AIRTALLY.EDCAMIX("HE MCS7 1SS 20MHz", {"VO";"BE"}, {2;8}, 1500)
+ * @remarks Multi-class EDCA saturation model with AIFS differentiation (source named in the model's documentation), on Bianchi's model.
+ * @helpurl https://localhost:3000/help/edcamix.html
+ */
+export function edcamix(
+  link: string,
+  access_list: any[][],
+  counts: any[][],
+  packet_bytes: number,
+  mpdus?: any,
+  protection?: ProtectionMode,
+  mac_options?: string,
+): any[][] {
+  return arrayCell(() => edcaMixTable(link, access_list, counts, packet_bytes, mpdus, protection, mac_options));
+}
+
+// ---------------------------------------------------------------- RF
+
+/**
+ * Free-space path loss (Friis).
+ * @customfunction FSPL
+ * @param distance_m Distance (m)
+ * @param freq_mhz Frequency (MHz)
+ * @returns Path loss (dB)
+ * @example =AIRTALLY.FSPL(10, 5500)
+ * @remarks 20 log10(4π d f ÷ c), the Friis transmission equation in free space.
+ * @caution Planning estimate only: real paths add walls, people and multipath. A site survey, local regulations and licensed practice decide.
+ * @helpurl https://localhost:3000/help/fspl.html
+ */
+export function fspl(distance_m: number, freq_mhz: number): number {
+  return numberCell(() => rf.fsplDb(distance_m, freq_mhz));
+}
+
+/**
+ * ITU-R P.1238 site-general indoor path loss.
+ * @customfunction INDOORLOSS
+ * @param distance_m Distance, 1 m or more (m)
+ * @param freq_mhz Frequency (MHz)
+ * @param [distance_power] Distance power loss coefficient N, default 30
+ * @param [floors] Floors between transmitter and receiver (count), default 0
+ * @param [floor_loss_db] Loss per floor (dB), default 15
+ * @returns Path loss (dB)
+ * @example =AIRTALLY.INDOORLOSS(20, 5500)
+ * @example =AIRTALLY.INDOORLOSS(20, 2437, 28, 1, 15)
+ * @remarks L = 20 log10 f − 28 + N log10 d + L_f(n), Recommendation ITU-R P.1238-7 (02/2012) §3.1, with L_f = floors × floor_loss_db.
+ * @caution Planning estimate only; a site survey, local regulations and licensed practice decide.
+ * @helpurl https://localhost:3000/help/indoorloss.html
+ */
+export function indoorloss(distance_m: number, freq_mhz: number, distance_power?: number, floors?: number, floor_loss_db?: number): number {
+  return numberCell(() => rf.indoorLossDb(distance_m, freq_mhz, distance_power, floors, floor_loss_db));
+}
+
+/**
+ * Receiver noise floor: thermal noise in the channel width plus the noise figure.
+ * @customfunction NOISEFLOOR
+ * @param width_mhz Channel width (MHz)
+ * @param [noise_figure_db] Receiver noise figure (dB), default 7
+ * @returns Noise floor (dBm)
+ * @example =AIRTALLY.NOISEFLOOR(20)
+ * @example =AIRTALLY.NOISEFLOOR(80, 5)
+ * @remarks −174 dBm/Hz (kT at 290 K) + 10 log10(width in Hz) + noise figure.
+ * @helpurl https://localhost:3000/help/noisefloor.html
+ */
+export function noisefloor(width_mhz: number, noise_figure_db?: number): number {
+  return numberCell(() => rf.noiseFloorDbm(width_mhz, noise_figure_db));
+}
+
+/**
+ * Link text of the highest MCS whose minimum sensitivity plus margin is at or below a signal level.
+ * @customfunction TOPLINK
+ * @param family PHY family: DSSS, HR-DSSS, OFDM, ERP-OFDM, HT, VHT, HE or EHT
+ * @param rssi_dbm Received signal level (dBm)
+ * @param [streams] Spatial streams (count), default 1
+ * @param [width_mhz] Channel width (MHz), default 20
+ * @param [margin_db] Margin above the minimum sensitivity (dB), default 0
+ * @param [band_ghz] Band (GHz), default the family's (5, or 2.4 for DSSS, HR-DSSS and ERP-OFDM)
+ * @returns Canonical link text (text); #N/A when no MCS is reachable
+ * @example =AIRTALLY.TOPLINK("VHT", -60, 2, 80)
+ * @example =AIRTALLY.TOPLINK("OFDM", -75, 1, 20, 3)
+ * @remarks Minimum input sensitivity tables of IEEE Std 802.11-2020 (Tables 17-18, 19-23, 21-25), 802.11ax-2021 and 802.11be-2024; real receivers are often better than these minimums.
+ * @caution Planning estimate only; a site survey, local regulations and licensed practice decide.
+ * @helpurl https://localhost:3000/help/toplink.html
+ */
+export function toplink(
+  family: PhyFamily,
+  rssi_dbm: number,
+  streams?: number,
+  width_mhz?: number,
+  margin_db?: number,
+  band_ghz?: number,
+): string {
+  return textCell(() => rf.topLink(family, rssi_dbm, streams, width_mhz, margin_db, band_ghz));
+}
+
+/**
+ * Distance at which the received signal falls to a target level (inverse of INDOORLOSS).
+ * @customfunction REACH
+ * @param eirp_dbm EIRP of the access point as you configure it (dBm)
+ * @param target_dbm Design signal level at the client (dBm)
+ * @param freq_mhz Frequency (MHz)
+ * @param [distance_power] Distance power loss coefficient N, default 30
+ * @param [floors] Floors crossed (count), default 0
+ * @param [floor_loss_db] Loss per floor (dB), default 15
+ * @param [rx_gain_dbi] Client antenna gain (dBi), default 0
+ * @returns Distance (m)
+ * @example =AIRTALLY.REACH(20, -67, 5500)
+ * @remarks Solves the ITU-R P.1238-7 site-general model for d.
+ * @caution The EIRP is the value you give; legal EIRP and channel use differ by country and RF exposure limits protect people. Planning estimate only; a site survey, local regulations and licensed practice decide.
+ * @helpurl https://localhost:3000/help/reach.html
+ */
+export function reach(
+  eirp_dbm: number,
+  target_dbm: number,
+  freq_mhz: number,
+  distance_power?: number,
+  floors?: number,
+  floor_loss_db?: number,
+  rx_gain_dbi?: number,
+): number {
+  return numberCell(() => rf.reachM(eirp_dbm, target_dbm, freq_mhz, distance_power, floors, floor_loss_db, rx_gain_dbi));
+}
+
+// ---------------------------------------------------------------- Site budget
+
+/**
+ * Access points needed to cover an area with hexagonal cells and overlap.
+ * @customfunction COVERAGEAPS
+ * @param area_m2 Floor area (m²)
+ * @param reach_m Cell radius (m), e.g. from REACH
+ * @param [overlap_share] Share of the radius given to overlap between cells, default 0.15
+ * @returns Access points (count)
+ * @example =AIRTALLY.COVERAGEAPS(5000, 25)
+ * @remarks Hexagons inscribed in circles of the effective radius tile the plane; see the model's documentation for the geometry.
+ * @caution Planning estimate only; walls, ceilings and furniture change coverage — a site survey decides.
+ * @helpurl https://localhost:3000/help/coverageaps.html
+ */
+export function coverageaps(area_m2: number, reach_m: number, overlap_share?: number): number {
+  return numberCell(() => budget.coverageAps(area_m2, reach_m, overlap_share));
+}
+
+/**
+ * Share of a channel's airtime spent on beacons.
+ * @customfunction BEACONLOAD
+ * @param ssids SSIDs per access point (count)
+ * @param [aps_heard] Access points heard on the channel (count), default 1
+ * @param [beacon_bytes] Beacon frame length including FCS (bytes), default 350
+ * @param [beacon_link] Link text of the beacon rate, default "OFDM 6Mbps 5GHz"
+ * @param [interval_tu] Beacon interval (TU of 1024 µs), default 100
+ * @returns Share of airtime (share 0..1)
+ * @example =AIRTALLY.BEACONLOAD(4, 3)
+ * @example =AIRTALLY.BEACONLOAD(4, 3, 350, "DSSS 1Mbps 2.4GHz")
+ * @remarks Each beacon costs the medium access before it plus its TXTIME; TU = 1024 µs (IEEE Std 802.11-2020 3.1).
+ * @helpurl https://localhost:3000/help/beaconload.html
+ */
+export function beaconload(ssids: number, aps_heard?: number, beacon_bytes?: number, beacon_link?: string, interval_tu?: number): number {
+  return numberCell(() => budget.beaconLoad(ssids, aps_heard, beacon_bytes, beacon_link, interval_tu));
+}
+
+/**
+ * Share of airtime one client needs to carry its demand.
+ * @customfunction CLIENTSHARE
+ * @param link Link text of the client (text)
+ * @param demand_mbps Client demand (Mb/s)
+ * @param [packet_bytes] Network-layer packet (bytes), default 1500
+ * @param [stations] Contending stations (count), default 1
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [mac_options] MAC settings text
+ * @returns Share of airtime (share; above 1 means more than one channel)
+ * @example =AIRTALLY.CLIENTSHARE("HE MCS7 2SS 40MHz", 5)
+ * @example =AIRTALLY.CLIENTSHARE("HE MCS7 2SS 40MHz", 5, 1500, 20)
+ * @remarks demand ÷ GOODPUT for one station, demand ÷ SATURATE for several (the channel's capacity in that link under contention).
+ * @helpurl https://localhost:3000/help/clientshare.html
+ */
+export function clientshare(
+  link: string,
+  demand_mbps: number,
+  packet_bytes?: number,
+  stations?: number,
+  access?: AccessCategory,
+  mac_options?: string,
+): number {
+  return numberCell(() => budget.clientShare(link, demand_mbps, packet_bytes, stations, access, mac_options));
+}
+
+/**
+ * Total airtime share of a client mix given as three ranges of the same size.
+ * @customfunction MIXSHARE
+ * @param links Link text per client class (range)
+ * @param counts Clients per class (count, range)
+ * @param demands_mbps Demand per client (Mb/s, range)
+ * @param [packet_bytes] Network-layer packet (bytes), default 1500
+ * @param [stations] Contending stations (count), default 1
+ * @returns Total share of airtime (share; above 1 means more than one channel)
+ * @example =AIRTALLY.MIXSHARE({"HE MCS7 2SS 40MHz";"HT MCS4 20MHz 5GHz"}, {20;5}, {2;1})
+ * @remarks Σ count × CLIENTSHARE(link, demand); blank rows are ignored.
+ * @helpurl https://localhost:3000/help/mixshare.html
+ */
+export function mixshare(links: any[][], counts: any[][], demands_mbps: any[][], packet_bytes?: number, stations?: number): number {
+  return numberCell(() => budget.mixShare(links, counts, demands_mbps, packet_bytes, stations));
+}
+
+/**
+ * Radios (channels) needed to carry a total airtime share.
+ * @customfunction RADIOS
+ * @param total_share Total airtime share, e.g. from MIXSHARE (share)
+ * @param [max_utilization] Highest planned utilization of a channel, default 0.7
+ * @param [overhead_share] Share already taken by overhead such as beacons, default 0
+ * @returns Radios (count)
+ * @example =AIRTALLY.RADIOS(2.3)
+ * @example =AIRTALLY.RADIOS(2.3, 0.7, 0.05)
+ * @remarks ceil(total_share ÷ (max_utilization − overhead_share)).
+ * @helpurl https://localhost:3000/help/radios.html
+ */
+export function radios(total_share: number, max_utilization?: number, overhead_share?: number): number {
+  return numberCell(() => budget.radios(total_share, max_utilization, overhead_share));
+}
+
+// ---------------------------------------------------------------- Audit
+
+/**
+ * The components of one channel access and their airtime, for auditing; spills two columns, total last.
+ * @customfunction BREAKDOWN
+ * @param link Link text (text)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [mpdus] MPDUs per PPDU (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI, VO or DCF; default BE
+ * @param [protection] none (default), RTS or CTS
+ * @param [mac_options] MAC settings text
+ * @returns Two columns: component and its airtime (µs); the last row is the total, equal to ACCESS
+ * @example =AIRTALLY.BREAKDOWN("ERP-OFDM 54Mbps 2.4GHz", 1500)
+ * @remarks Same terms as ACCESS.
+ * @helpurl https://localhost:3000/help/breakdown.html
+ */
+export function breakdown(
+  link: string,
+  packet_bytes: number,
+  mpdus?: any,
+  access?: AccessCategory,
+  protection?: ProtectionMode,
+  mac_options?: string,
+): any[][] {
+  return arrayCell(() => breakdownTable(link, packet_bytes, mpdus, access, protection, mac_options));
 }

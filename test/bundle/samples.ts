@@ -4,6 +4,10 @@
  * every function added to the catalog gets exercised through the built bundle.
  */
 import * as core from "../../src/core/index";
+import * as mac from "../../src/core/mac/index";
+import * as contention from "../../src/core/contention/index";
+import * as rf from "../../src/core/rf/index";
+import * as budget from "../../src/core/budget/index";
 
 export interface Sample {
   readonly args: unknown[];
@@ -28,4 +32,70 @@ export const SAMPLES: Record<string, Sample[]> = {
   PSDUFIT: [{ args: ["HT MCS7 20MHz", 5484], expected: () => core.psduFit("HT MCS7 20MHz", 5484) }],
   SENSITIVITY: [{ args: ["VHT MCS9 2SS 80MHz"], expected: () => core.sensitivityDbm("VHT MCS9 2SS 80MHz") }],
   TXTIMEPARTS: [{ args: ["HR-DSSS 11Mbps short", 1500], expected: () => core.txtimeTable("HR-DSSS 11Mbps short", 1500) }],
+  MPDU: [
+    { args: [1500, null], expected: () => mac.mpduBytes(1500) },
+    { args: [1500, "AMSDU=2 GCMP-256"], expected: () => mac.mpduBytes(1500, "AMSDU=2 GCMP-256") },
+  ],
+  AMPDU: [{ args: [1550, 64], expected: () => mac.ampduBytes(1550, 64) }],
+  AGGCOUNT: [
+    { args: ["VHT MCS9 2SS 80MHz", 1500, null, null], expected: () => mac.aggCount("VHT MCS9 2SS 80MHz", 1500) },
+    { args: ["HT MCS7 20MHz", 1500, "VO", "BA=32"], expected: () => mac.aggCount("HT MCS7 20MHz", 1500, "VO", "BA=32") },
+  ],
+  AIFS: [
+    { args: ["BE", null, null], expected: () => mac.aifsUs("BE") },
+    { args: ["VO", "ERP-OFDM 54Mbps", "AP"], expected: () => mac.aifsUs("VO", "ERP-OFDM 54Mbps", "AP") },
+  ],
+  ACCESS: [
+    { args: ["ERP-OFDM 54Mbps", 1500, null, null, null, null], expected: () => mac.channelAccess("ERP-OFDM 54Mbps", 1500).totalUs },
+    { args: ["HE MCS11 2SS 80MHz", 1500, "auto", "VI", "RTS", "AMSDU=2"], expected: () => mac.channelAccess("HE MCS11 2SS 80MHz", 1500, "auto", "VI", "RTS", "AMSDU=2").totalUs },
+  ],
+  GOODPUT: [
+    { args: ["OFDM 54Mbps", 1500, null, null, null, null, null], expected: () => mac.goodputMbps("OFDM 54Mbps", 1500) },
+    { args: ["VHT MCS9 2SS 80MHz", 1500, 32, "BE", "CTS", 0.1, "open"], expected: () => mac.goodputMbps("VHT MCS9 2SS 80MHz", 1500, 32, "BE", "CTS", 0.1, "open") },
+  ],
+  EFFICIENCY: [{ args: ["HT MCS7 20MHz", 1500, 1, null, null, null, null], expected: () => mac.efficiency("HT MCS7 20MHz", 1500, 1) }],
+  RETX: [
+    { args: [64, 0.1, null], expected: () => mac.expectedTransmissions(64, 0.1) },
+    { args: [8, 0.1, "whole"], expected: () => mac.expectedTransmissions(8, 0.1, "whole") },
+  ],
+  COLLIDE: [
+    { args: [10, null, null, null], expected: () => contention.collisionProbability(10) },
+    { args: [50, 31, 1023, 4], expected: () => contention.collisionProbability(50, 31, 1023, 4) },
+  ],
+  SATURATE: [{ args: ["OFDM 54Mbps", 10, 1500, null, null, null, null], expected: () => contention.saturationGoodputMbps("OFDM 54Mbps", 10, 1500) }],
+  CONTENTION: [{ args: ["HE MCS7 20MHz", 20, 1500, "auto", "BE", "RTS", null], expected: () => contention.contentionShare("HE MCS7 20MHz", 20, 1500, "auto", "BE", "RTS") }],
+  EDCAMIX: [
+    {
+      args: ["HE MCS7 1SS 20MHz", [["VO"], ["BE"]], [[2], [8]], 1500, null, null, null],
+      expected: () => core.edcaMixTable("HE MCS7 1SS 20MHz", [["VO"], ["BE"]], [[2], [8]], 1500),
+    },
+  ],
+  FSPL: [{ args: [10, 5500], expected: () => rf.fsplDb(10, 5500) }],
+  INDOORLOSS: [
+    { args: [20, 5500, null, null, null], expected: () => rf.indoorLossDb(20, 5500) },
+    { args: [20, 2437, 28, 1, 15], expected: () => rf.indoorLossDb(20, 2437, 28, 1, 15) },
+  ],
+  NOISEFLOOR: [{ args: [20, null], expected: () => rf.noiseFloorDbm(20) }],
+  TOPLINK: [
+    { args: ["VHT", -60, 2, 80, null, null], expected: () => rf.topLink("VHT", -60, 2, 80) },
+    { args: ["OFDM", -75, null, null, 3, null], expected: () => rf.topLink("OFDM", -75, null, null, 3) },
+  ],
+  REACH: [{ args: [20, -67, 5500, null, null, null, null], expected: () => rf.reachM(20, -67, 5500) }],
+  COVERAGEAPS: [{ args: [5000, 25, null], expected: () => budget.coverageAps(5000, 25) }],
+  BEACONLOAD: [
+    { args: [4, 3, null, null, null], expected: () => budget.beaconLoad(4, 3) },
+    { args: [4, 3, 350, "DSSS 1Mbps", 100], expected: () => budget.beaconLoad(4, 3, 350, "DSSS 1Mbps", 100) },
+  ],
+  CLIENTSHARE: [
+    { args: ["HE MCS7 2SS 40MHz", 5, null, null, null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5) },
+    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 20, "VI", null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 20, "VI") },
+  ],
+  MIXSHARE: [
+    {
+      args: [[["HE MCS7 2SS 40MHz"], ["HT MCS4 20MHz"], [""]], [[20], [5], [null]], [[2], [1], [null]], null, null],
+      expected: () => budget.mixShare([["HE MCS7 2SS 40MHz"], ["HT MCS4 20MHz"], [""]], [[20], [5], [null]], [[2], [1], [null]]),
+    },
+  ],
+  RADIOS: [{ args: [2.3, null, null], expected: () => budget.radios(2.3) }],
+  BREAKDOWN: [{ args: ["ERP-OFDM 54Mbps", 1500, null, null, null, null], expected: () => core.breakdownTable("ERP-OFDM 54Mbps", 1500) }],
 };
