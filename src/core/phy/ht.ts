@@ -342,21 +342,24 @@ export function bccSymbols(psduBytes: Bytes, nDbps: number, nEs: number, m: numb
   return m * Math.ceil((8 * psduBytes + N_SERVICE_bits + N_TAIL_bits * nEs) / (m * nDbps));
 }
 
+/** Audit terms of the LDPC encoding process (19.3.11.7.5): codewords, shortening, puncturing, extra symbol. */
+export function ldpcCodewordTerms(codewords: LdpcCodewords, m: number): TxTimeTerm[] {
+  return [
+    factorTerm("N_CW (LDPC codewords)", codewords.nCw),
+    factorTerm("L_LDPC (bits)", codewords.lLdpc),
+    factorTerm("N_shrt (bits)", codewords.nShrt),
+    factorTerm("N_punc (bits)", codewords.nPunc),
+    factorTerm("LDPC extra symbol", codewords.extraSymbol ? m : 0),
+  ];
+}
+
 /** Explanatory terms for the data field's symbol count (BCC or LDPC). */
 export function dataSymbolTerms(link: Link, psduBytes: Bytes, p: SymbolParams, m: number): { nSym: number; terms: TxTimeTerm[] } {
   const terms: TxTimeTerm[] = [factorTerm("N_DBPS (bits)", p.nDbps)];
   if (link.stbc) terms.push(factorTerm("m_STBC", m));
   if (link.coding === "LDPC") {
     const l = htLdpcSymbols(psduBytes, p, m);
-    terms.push(
-      factorTerm("N_CBPS (bits)", p.nCbps),
-      factorTerm("N_CW (LDPC codewords)", l.codewords.nCw),
-      factorTerm("L_LDPC (bits)", l.codewords.lLdpc),
-      factorTerm("N_shrt (bits)", l.codewords.nShrt),
-      factorTerm("N_punc (bits)", l.codewords.nPunc),
-      factorTerm("LDPC extra symbol", l.codewords.extraSymbol ? m : 0),
-      factorTerm("N_SYM", l.nSym),
-    );
+    terms.push(factorTerm("N_CBPS (bits)", p.nCbps), ...ldpcCodewordTerms(l.codewords, m), factorTerm("N_SYM", l.nSym));
     return { nSym: l.nSym, terms };
   }
   const nSym = bccSymbols(psduBytes, p.nDbps, p.nEs, m);

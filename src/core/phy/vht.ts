@@ -43,6 +43,7 @@ import {
   bccSymbols,
   dataFieldUs,
   ldpcCodewords,
+  ldpcCodewordTerms,
   mStbc,
   sensitivityAtWidth,
   spaceTimeStreams,
@@ -185,11 +186,7 @@ function vhtDataTerms(link: Link, apepBytes: Bytes, p: SymbolParams, m: number):
     terms.push(
       factorTerm("N_CBPS (bits)", p.nCbps),
       factorTerm("N_SYM,init", l.nSymInit),
-      factorTerm("N_CW (LDPC codewords)", l.codewords.nCw),
-      factorTerm("L_LDPC (bits)", l.codewords.lLdpc),
-      factorTerm("N_shrt (bits)", l.codewords.nShrt),
-      factorTerm("N_punc (bits)", l.codewords.nPunc),
-      factorTerm("LDPC extra symbol", l.codewords.extraSymbol ? m : 0),
+      ...ldpcCodewordTerms(l.codewords, m),
       factorTerm("N_SYM", l.nSym),
     );
     return { nSym: l.nSym, terms };
