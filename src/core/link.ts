@@ -269,10 +269,29 @@ export function canonicalLink(text: unknown): string {
   return parseLink(text).text;
 }
 
+/** One LINK argument turned into link text, with the argument's name for error messages. */
+interface ArgumentToken {
+  readonly name: string;
+  readonly text: string;
+}
+
+/** A LINK number argument: finite, in range, else #VALUE! naming the argument. */
+function linkNumber(name: string, value: unknown, min: number, max: number, what: string): number {
+  if (typeof value !== "number" || !Number.isFinite(value) || value < min || value > max) {
+    invalid(`${name}: expected ${what}, got ${describe(value)}`);
+  }
+  return value;
+}
+
 /**
  * Build a link from separate arguments (the LINK function). `mcs` is the rate
  * in Mb/s for non-HT families. Null arguments take the defaults; for HT an
  * omitted stream count is implied by the MCS index.
+ *
+ * The arguments become link text and go through the one parser, so LINK and
+ * link text can never disagree. When the standard refuses the combination,
+ * the message names the argument responsible: the first optional argument
+ * (from the last) whose omission makes the link valid, else `mcs`.
  */
 export function buildLink(
   family: unknown,
@@ -286,33 +305,49 @@ export function buildLink(
   if (typeof family !== "string" || isMissing(family)) invalid(`family: expected ${VALID_FAMILIES_TEXT}, got ${describe(family)}`);
   const fam = FAMILIES.find((f) => f === family.trim().toUpperCase());
   if (!fam) invalid(`family: unknown family "${family}"; use ${VALID_FAMILIES_TEXT}`);
-  const tokens: string[] = [fam];
-  const num = (name: string, v: unknown): number => {
-    if (typeof v !== "number" || !Number.isFinite(v) || v < 0) invalid(`${name}: expected a positive number, got ${describe(v)}`);
-    return v;
-  };
   if (isMissing(mcs)) invalid(`mcs: required; the MCS index (or the rate in Mb/s for ${NON_HT_FAMILIES.join(", ")})`);
-  const m = num("mcs", mcs);
-  if (isNonHt(fam)) tokens.push(`${m}Mbps`);
-  else {
+  const tokens: ArgumentToken[] = [];
+  if (isNonHt(fam)) {
+    tokens.push({ name: "mcs", text: `${linkNumber("mcs", mcs, 0, 1000, "the data rate in Mb/s of a non-HT family (e.g. 54)")}Mbps` });
+  } else {
+    const m = linkNumber("mcs", mcs, 0, 1000, "a whole MCS index");
     if (!Number.isInteger(m)) invalid(`mcs: must be a whole MCS index, got ${m}`);
-    tokens.push(`MCS${m}`);
+    tokens.push({ name: "mcs", text: `MCS${m}` });
   }
   if (!isMissing(streams)) {
-    const s = num("streams", streams);
-    if (!Number.isInteger(s) || s < 1) invalid(`streams: must be a whole number of spatial streams (1–16), got ${s}`);
-    tokens.push(`${s}SS`);
+    const s = linkNumber("streams", streams, 1, 16, "a whole number of spatial streams from 1 to 16");
+    if (!Number.isInteger(s)) invalid(`streams: must be a whole number of spatial streams from 1 to 16, got ${s}`);
+    tokens.push({ name: "streams", text: `${s}SS` });
   }
   if (!isMissing(widthMHz)) {
-    const w = num("width_mhz", widthMHz);
+    const w = linkNumber("width_mhz", widthMHz, 1, 1000, "20, 40, 80, 160 or 320");
     if (!Number.isInteger(w)) invalid(`width_mhz: must be 20, 40, 80, 160 or 320, got ${w}`);
-    tokens.push(`${w}MHz`);
+    tokens.push({ name: "width_mhz", text: `${w}MHz` });
   }
-  if (!isMissing(giUs)) tokens.push(`GI${num("gi_us", giUs)}`);
-  if (!isMissing(bandGHz)) tokens.push(`${num("band_ghz", bandGHz)}GHz`);
+  if (!isMissing(giUs)) tokens.push({ name: "gi_us", text: `GI${linkNumber("gi_us", giUs, 0.1, 10, "0.4, 0.8, 1.6 or 3.2 µs")}` });
+  if (!isMissing(bandGHz)) tokens.push({ name: "band_ghz", text: `${linkNumber("band_ghz", bandGHz, 1, 100, "2.4, 5 or 6 GHz")}GHz` });
   if (!isMissing(phyOptions)) {
     if (typeof phyOptions !== "string") invalid(`phy_options: expected text such as "LDPC STBC", got ${describe(phyOptions)}`);
-    tokens.push(phyOptions);
+    tokens.push({ name: "phy_options", text: phyOptions });
   }
-  return parseLink(tokens.join(" "));
+  const textOf = (list: readonly ArgumentToken[]) => [fam, ...list.map((t) => t.text)].join(" ");
+  try {
+    return parseLink(textOf(tokens));
+  } catch (e) {
+    if (!(e instanceof AirtallyError)) throw e;
+    throw new AirtallyError(e.kind, e.message.replace(/^link:/, `${blamedArgument(tokens, textOf)}:`));
+  }
+}
+
+/** The LINK argument a refusal comes from: the last optional one whose omission makes the link valid, else mcs. */
+function blamedArgument(tokens: readonly ArgumentToken[], textOf: (list: readonly ArgumentToken[]) => string): string {
+  for (let i = tokens.length - 1; i >= 1; i--) {
+    try {
+      parseLink(textOf(tokens.filter((_, k) => k !== i)));
+      return tokens[i].name;
+    } catch (e) {
+      if (!(e instanceof AirtallyError)) throw e;
+    }
+  }
+  return "mcs";
 }

@@ -560,7 +560,7 @@ export function coverageaps(area_m2: number, reach_m: number, overlap_share?: nu
  * @param [beacon_bytes] Beacon frame length including FCS (bytes), default 350
  * @param [beacon_link] Link text of the beacon rate, default "OFDM 6Mbps 5GHz"
  * @param [interval_tu] Beacon interval (TU of 1024 µs), default 100
- * @returns Share of airtime (share 0..1)
+ * @returns Share of airtime (share; above 1 means the beacons alone need more than the channel)
  * @example =AIRTALLY.BEACONLOAD(4, 3)
  * @example =AIRTALLY.BEACONLOAD(4, 3, 350, "DSSS 1Mbps 2.4GHz")
  * @remarks Each beacon costs the medium access before it plus its TXTIME; TU = 1024 µs (IEEE Std 802.11-2020 3.1).

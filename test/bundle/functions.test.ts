@@ -64,7 +64,9 @@ describe("bad input through the bundle", () => {
     ["TXTIME", ["OFDM 54Mbps", "1500"], "#VALUE!", /^psdu_bytes:/],
     ["PSDUFIT", ["OFDM 54Mbps", -5], "#VALUE!", /^duration_us:/],
     ["LINK", ["HX", 1], "#VALUE!", /^family:/],
-    ["LINK", ["VHT", 9, 1, 20], "#VALUE!", /VHT MCS9 is not defined at 20 MHz with 1 spatial stream/],
+    ["LINK", ["VHT", 9, 1, 20], "#VALUE!", /^mcs: VHT MCS9 is not defined at 20 MHz with 1 spatial stream/],
+    ["LINK", ["OFDM", 54, null, null, 0.8], "#VALUE!", /^gi_us:/],
+    ["LINK", ["HE", 11, 2, 80, null, 2.4], "#VALUE!", /^band_ghz:/],
     ["TXTIMEPARTS", ["garbage words", 100], "#VALUE!", /^link:/],
   ];
   for (const [id, args, code, message] of refusals) {

@@ -6,7 +6,7 @@ import { AirtallyError, invalid } from "../errors";
 import { edcaParameters } from "../mac/index";
 import { asLink, txtimeUs } from "../phy/index";
 import type { Bytes, Microseconds, Share } from "../units";
-import { optionalNumber, wholeNonNegative } from "../rf/_lib";
+import { atMost, optionalNumber, wholeNonNegative } from "../rf/_lib";
 
 /** TU, the time unit of beacon intervals: 1024 µs (IEEE 802.11-2020 3.1, definition of time unit). */
 export const TU_us: Microseconds = 1024;
@@ -73,8 +73,9 @@ export function beaconLoad(
   beaconLink?: unknown,
   intervalTu?: unknown,
 ): Share {
-  const nSsids = wholeNonNegative("ssids", finiteNumber("ssids", ssids));
-  const nAps = wholeNonNegative("aps_heard", optionalNumber("aps_heard", apsHeard, 1));
+  // Guards: more SSIDs per radio or more APs on one channel than any site has keep the share finite.
+  const nSsids = atMost("ssids", wholeNonNegative("ssids", finiteNumber("ssids", ssids)), 1024, "");
+  const nAps = atMost("aps_heard", wholeNonNegative("aps_heard", optionalNumber("aps_heard", apsHeard, 1)), 10000, "");
   const bytes = optionalNumber("beacon_bytes", beaconBytes, DEFAULT_BEACON_BYTES);
   if (!Number.isInteger(bytes) || bytes < 1) invalid(`beacon_bytes: must be a whole number of octets, 1 or more, got ${bytes}`);
   const interval = optionalNumber("interval_tu", intervalTu, DEFAULT_INTERVAL_TU);

@@ -4,7 +4,7 @@
 import { finiteNumber } from "../args";
 import { invalid } from "../errors";
 import type { Meters, Share } from "../units";
-import { ceilRatio, nonNegative, optionalNumber, positive } from "../rf/_lib";
+import { atLeast, atMost, ceilRatio, nonNegative, optionalNumber } from "../rf/_lib";
 
 /** Catalog default cell overlap (DESIGN.md §2; common practice: 10–20 % overlap between neighbouring cells for roaming). */
 export const DEFAULT_OVERLAP_SHARE: Share = 0.15;
@@ -30,8 +30,9 @@ export function hexagonAreaM2(circumradiusM: Meters): number {
  * Example: coverageAps(1000, 10) → r = 8.5 m, cell = 187.7 m², ceil(5.33) = 6.
  */
 export function coverageAps(areaM2: unknown, reachM: unknown, overlapShare?: unknown): number {
-  const area = nonNegative("area_m2", finiteNumber("area_m2", areaM2), "m²");
-  const reach = positive("reach_m", finiteNumber("reach_m", reachM), "m");
+  // 100 km² of floor and a 0.1 m cell are beyond any site; the bounds keep the count finite.
+  const area = atMost("area_m2", nonNegative("area_m2", finiteNumber("area_m2", areaM2), "m²"), 1e8, "m²");
+  const reach = atMost("reach_m", atLeast("reach_m", finiteNumber("reach_m", reachM), 0.1, "m"), 1e6, "m");
   const overlap = optionalNumber("overlap_share", overlapShare, DEFAULT_OVERLAP_SHARE);
   if (!(overlap >= 0 && overlap < 1)) invalid(`overlap_share: must be from 0 up to (not including) 1, got ${overlap}`);
   if (area === 0) return 0;

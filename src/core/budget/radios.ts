@@ -4,7 +4,7 @@
 import { finiteNumber } from "../args";
 import { invalid } from "../errors";
 import type { Share } from "../units";
-import { ceilRatio, nonNegative, optionalNumber } from "../rf/_lib";
+import { atMost, ceilRatio, nonNegative, optionalNumber } from "../rf/_lib";
 
 /** Catalog default utilization ceiling (DESIGN.md §2; common practice: plan a channel to about 70 % busy). */
 export const DEFAULT_MAX_UTILIZATION: Share = 0.7;
@@ -23,7 +23,8 @@ export const DEFAULT_MAX_UTILIZATION: Share = 0.7;
  * Example: radios(2.1, 0.7, 0.1) → ceil(2.1 ÷ 0.6) = ceil(3.5) = 4.
  */
 export function radios(totalShare: unknown, maxUtilization?: unknown, overheadShare?: unknown): number {
-  const total = nonNegative("total_share", finiteNumber("total_share", totalShare), "");
+  // A million channels' worth of airtime is far beyond any site; the bound keeps the count finite.
+  const total = atMost("total_share", nonNegative("total_share", finiteNumber("total_share", totalShare), ""), 1e6, "");
   const ceiling = optionalNumber("max_utilization", maxUtilization, DEFAULT_MAX_UTILIZATION);
   if (!(ceiling > 0 && ceiling < 1)) invalid(`max_utilization: must be above 0 and below 1 (a share of the channel's time), got ${ceiling}`);
   const overhead = nonNegative("overhead_share", optionalNumber("overhead_share", overheadShare, 0), "");

@@ -9,7 +9,7 @@ import { goodputMbps } from "../mac/index";
 import { saturationGoodputMbps } from "../contention/index";
 import { asLink } from "../phy/index";
 import type { MbPerSecond, Share } from "../units";
-import { nonNegative, optionalNumber } from "../rf/_lib";
+import { atMost, nonNegative, optionalNumber } from "../rf/_lib";
 
 /** Catalog defaults (DESIGN.md §2). */
 export const DEFAULT_PACKET_BYTES = 1500;
@@ -50,7 +50,8 @@ export function clientShare(
   access?: unknown,
   macOptions?: unknown,
 ): Share {
-  const demand = nonNegative("demand_mbps", finiteNumber("demand_mbps", demandMbps), "Mb/s");
+  // 1 Tb/s per client is beyond any Wi-Fi link; the bound keeps the share finite.
+  const demand = atMost("demand_mbps", nonNegative("demand_mbps", finiteNumber("demand_mbps", demandMbps), "Mb/s"), 1e6, "Mb/s");
   const bytes = isMissing(packetBytes) ? DEFAULT_PACKET_BYTES : packetBytes;
   const capacity = channelGoodputMbps(link, bytes, readStations(stations), access, macOptions);
   if (!(capacity > 0)) invalid(`link: ${asLink(link).text} delivers no goodput with these settings`);
@@ -72,11 +73,14 @@ function isBlank(cell: unknown): boolean {
   return isMissing(cell) || (typeof cell === "string" && cell.trim() === "");
 }
 
-/** A count or demand cell: blank → 0, else a finite number ≥ 0. */
+/** Largest count or demand per cell: beyond any site (a million clients, 1 Tb/s each); keeps the sum finite. */
+const AMOUNT_MAX = 1e6;
+
+/** A count or demand cell: blank → 0, else a finite number from 0 to AMOUNT_MAX. */
 function amount(name: string, item: number, cell: unknown): number {
   if (isBlank(cell)) return 0;
-  if (typeof cell !== "number" || !Number.isFinite(cell) || cell < 0) {
-    invalid(`${name}: item ${item} must be a number 0 or more, got ${describe(cell)}`);
+  if (typeof cell !== "number" || !Number.isFinite(cell) || cell < 0 || cell > AMOUNT_MAX) {
+    invalid(`${name}: item ${item} must be a number from 0 to ${AMOUNT_MAX}, got ${describe(cell)}`);
   }
   return cell;
 }

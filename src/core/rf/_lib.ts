@@ -11,6 +11,22 @@ export function optionalNumber(name: string, value: unknown, fallback: number): 
   return isMissing(value) ? fallback : finiteNumber(name, value);
 }
 
+/**
+ * A finite number no larger than `max`. Bounds are generous (far beyond any
+ * real site) and exist so that no input can overflow the arithmetic into
+ * Infinity or underflow it to 0 (DESIGN.md §4: never a non-finite result).
+ */
+export function atMost(name: string, value: number, max: number, unit: string): number {
+  if (value > max) invalid(`${name}: must be at most ${max}${unit ? " " + unit : ""}, got ${value}`);
+  return value;
+}
+
+/** A finite number ≥ `min` (min > 0): keeps logarithms and divisions away from underflow. */
+export function atLeast(name: string, value: number, min: number, unit: string): number {
+  if (!(value >= min)) invalid(`${name}: must be at least ${min}${unit ? " " + unit : ""}, got ${value}`);
+  return value;
+}
+
 /** A finite number > 0. */
 export function positive(name: string, value: number, unit: string): number {
   if (!(value > 0)) invalid(`${name}: must be greater than 0${unit ? " " + unit : ""}, got ${value}`);

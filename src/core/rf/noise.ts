@@ -3,7 +3,7 @@
  */
 import { finiteNumber } from "../args";
 import type { Db, Dbm, MHz } from "../units";
-import { nonNegative, optionalNumber, positive } from "./_lib";
+import { atLeast, atMost, nonNegative, optionalNumber } from "./_lib";
 
 /**
  * Thermal noise density kT₀ at the standard reference temperature T₀ = 290 K:
@@ -21,7 +21,8 @@ export const DEFAULT_NOISE_FIGURE_dB: Db = 7;
  * Example: noiseFloorDbm(20) → −174 + 73.01 + 7 = −93.99 dBm.
  */
 export function noiseFloorDbm(widthMHz: unknown, noiseFigureDb?: unknown): Dbm {
-  const w: MHz = positive("width_mhz", finiteNumber("width_mhz", widthMHz), "MHz");
-  const nf = nonNegative("noise_figure_db", optionalNumber("noise_figure_db", noiseFigureDb, DEFAULT_NOISE_FIGURE_dB), "dB");
+  // Bounds far outside Wi-Fi (1 Hz to 1 THz, NF up to 100 dB) only keep the result finite.
+  const w: MHz = atMost("width_mhz", atLeast("width_mhz", finiteNumber("width_mhz", widthMHz), 1e-6, "MHz"), 1e6, "MHz");
+  const nf = atMost("noise_figure_db", nonNegative("noise_figure_db", optionalNumber("noise_figure_db", noiseFigureDb, DEFAULT_NOISE_FIGURE_dB), "dB"), 100, "dB");
   return THERMAL_NOISE_dBm_per_Hz + 10 * Math.log10(w * 1e6) + nf;
 }

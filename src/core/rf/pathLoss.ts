@@ -9,10 +9,10 @@
  * practice decide. These functions never choose a power: the EIRP is the
  * user's own input.
  */
-import { finiteNumber } from "../args";
+import { finiteNumber, isMissing, numberInRange } from "../args";
 import { invalid } from "../errors";
 import type { Db, Dbm, MHz, Meters } from "../units";
-import { nonNegative, optionalNumber, positive, wholeNonNegative } from "./_lib";
+import { atLeast, atMost, nonNegative, optionalNumber, positive, wholeNonNegative } from "./_lib";
 
 /** Speed of light in vacuum, m/s (exact by the SI definition of the metre). */
 export const SPEED_OF_LIGHT_m_per_s = 299_792_458;
@@ -28,9 +28,14 @@ export const SPEED_OF_LIGHT_m_per_s = 299_792_458;
  *
  * Example: fsplDb(10, 2437) → 60.18 dB.
  */
+/** FSPL's accepted range: 1 kHz to 10 THz, up to 10⁹ m — far outside Wi-Fi, only to keep the result finite. */
+const FSPL_MIN_FREQ_MHz: MHz = 0.001;
+const FSPL_MAX_FREQ_MHz: MHz = 1e7;
+const FSPL_MAX_DISTANCE_m: Meters = 1e9;
+
 export function fsplDb(distanceM: unknown, freqMHz: unknown): Db {
-  const d = positive("distance_m", finiteNumber("distance_m", distanceM), "m");
-  const f = positive("freq_mhz", finiteNumber("freq_mhz", freqMHz), "MHz");
+  const d = atMost("distance_m", positive("distance_m", finiteNumber("distance_m", distanceM), "m"), FSPL_MAX_DISTANCE_m, "m");
+  const f = atLeast("freq_mhz", atMost("freq_mhz", finiteNumber("freq_mhz", freqMHz), FSPL_MAX_FREQ_MHz, "MHz"), FSPL_MIN_FREQ_MHz, "MHz");
   return 20 * Math.log10((4 * Math.PI * d * f * 1e6) / SPEED_OF_LIGHT_m_per_s);
 }
 
@@ -63,6 +68,13 @@ interface IndoorModel {
   readonly floorLossDb: Db;
 }
 
+/** Guards, not model limits: no building has more floors; no floor takes more loss. */
+const INDOOR_MAX_FLOORS = 200;
+const INDOOR_MAX_FLOOR_LOSS_dB: Db = 200;
+const INDOOR_MAX_DISTANCE_m: Meters = 1e6;
+/** eirp_dbm, target_dbm and rx_gain_dbi are levels a planner can meet: ±300 dB keeps REACH finite. */
+const LEVEL_LIMIT_dB = 300;
+
 function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, floorLossDb: unknown): IndoorModel {
   const f = finiteNumber("freq_mhz", freqMHz);
   if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) {
@@ -73,8 +85,8 @@ function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, fl
   return {
     freqMHz: f,
     distancePower: n,
-    floors: wholeNonNegative("floors", optionalNumber("floors", floors, 0)),
-    floorLossDb: nonNegative("floor_loss_db", optionalNumber("floor_loss_db", floorLossDb, DEFAULT_FLOOR_LOSS_dB), "dB"),
+    floors: atMost("floors", wholeNonNegative("floors", optionalNumber("floors", floors, 0)), INDOOR_MAX_FLOORS, ""),
+    floorLossDb: atMost("floor_loss_db", nonNegative("floor_loss_db", optionalNumber("floor_loss_db", floorLossDb, DEFAULT_FLOOR_LOSS_dB), "dB"), INDOOR_MAX_FLOOR_LOSS_dB, "dB"),
   };
 }
 
@@ -112,7 +124,7 @@ export function indoorLossDb(
   floors?: unknown,
   floorLossDb?: unknown,
 ): Db {
-  const d = finiteNumber("distance_m", distanceM);
+  const d = atMost("distance_m", finiteNumber("distance_m", distanceM), INDOOR_MAX_DISTANCE_m, "m");
   if (d < P1238_MIN_DISTANCE_m) invalid(`distance_m: the P.1238 model holds from ${P1238_MIN_DISTANCE_m} m, got ${d}`);
   const model = readModel(freqMHz, distancePower, floors, floorLossDb);
   return lossAtOneMetreDb(model) + model.distancePower * Math.log10(d);
@@ -142,10 +154,10 @@ export function reachM(
   floorLossDb?: unknown,
   rxGainDbi?: unknown,
 ): Meters {
-  const eirp: Dbm = finiteNumber("eirp_dbm", eirpDbm);
-  const target: Dbm = finiteNumber("target_dbm", targetDbm);
+  const eirp: Dbm = numberInRange("eirp_dbm", eirpDbm, -LEVEL_LIMIT_dB, LEVEL_LIMIT_dB, "dBm");
+  const target: Dbm = numberInRange("target_dbm", targetDbm, -LEVEL_LIMIT_dB, LEVEL_LIMIT_dB, "dBm");
   const model = readModel(freqMHz, distancePower, floors, floorLossDb);
-  const rxGain: Db = optionalNumber("rx_gain_dbi", rxGainDbi, 0);
+  const rxGain: Db = isMissing(rxGainDbi) ? 0 : numberInRange("rx_gain_dbi", rxGainDbi, -LEVEL_LIMIT_dB, LEVEL_LIMIT_dB, "dBi");
   const atOneMetre: Dbm = eirp + rxGain - lossAtOneMetreDb(model);
   if (target > atOneMetre) {
     invalid(
