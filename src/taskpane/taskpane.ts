@@ -1,50 +1,116 @@
 /**
- * The Airtally pane: a searchable function reference built from the add-in's
- * own functions.json. Works outside Office (shows a notice) so it can be
- * tested in a plain browser.
+ * The Airtally pane (DOM glue only): the function reference with search,
+ * "Insert site budget" and "Explain this cell". The logic lives in
+ * reference.ts, explain.ts, budgetTemplate.ts and office.ts. Outside Excel the
+ * reference still works and the workbook actions show a notice.
  */
-interface FunctionMetadata {
-  name: string;
-  description?: string;
-  parameters?: { name: string; description?: string; optional?: boolean }[];
-  result?: { dimensionality?: string };
+import { explainActiveCell, insertSiteBudget } from "./office";
+import { searchFunctions, signature, type FunctionMetadata } from "./reference";
+import type { Explanation } from "./explain";
+
+function byId<T extends HTMLElement>(id: string): T | null {
+  return document.getElementById(id) as T | null;
 }
 
-function renderReference(functions: FunctionMetadata[], filter: string): void {
-  const list = document.getElementById("reference");
+function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, className?: string): HTMLElementTagNameMap[K] {
+  const e = document.createElement(tag);
+  if (text !== undefined) e.textContent = text;
+  if (className) e.className = className;
+  return e;
+}
+
+function renderReference(functions: FunctionMetadata[], query: string): void {
+  const list = byId("reference");
   if (!list) return;
   list.textContent = "";
-  const needle = filter.trim().toLowerCase();
-  for (const fn of functions) {
-    const text = `${fn.name} ${fn.description ?? ""}`.toLowerCase();
-    if (needle && !text.includes(needle)) continue;
-    const dt = document.createElement("dt");
-    const args = (fn.parameters ?? []).map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ");
-    dt.textContent = `AIRTALLY.${fn.name}(${args})`;
-    const dd = document.createElement("dd");
-    dd.textContent = fn.description ?? "";
-    list.append(dt, dd);
+  const found = searchFunctions(functions, query);
+  for (const fn of found) {
+    const dt = el("dt");
+    const a = el("a", signature(fn));
+    a.href = `help/${fn.name.toLowerCase()}.html`;
+    a.target = "_blank";
+    a.rel = "noopener";
+    dt.append(a);
+    list.append(dt, el("dd", fn.description ?? ""));
   }
+  const count = byId("reference-count");
+  if (count) count.textContent = `${found.length} of ${functions.length} functions`;
+}
+
+function cellText(v: unknown): string {
+  if (v === null || v === undefined) return "(default)";
+  if (Array.isArray(v)) return v.map((row) => (Array.isArray(row) ? row.join(", ") : String(row))).join("; ");
+  if (typeof v === "number") return String(+v.toPrecision(10));
+  return String(v);
+}
+
+function table(rows: (string | number)[][], head?: string[]): HTMLTableElement {
+  const t = el("table");
+  if (head) {
+    const tr = el("tr");
+    for (const h of head) tr.append(el("th", h));
+    t.append(tr);
+  }
+  for (const row of rows) {
+    const tr = el("tr");
+    for (const v of row) tr.append(el("td", cellText(v)));
+    t.append(tr);
+  }
+  return t;
+}
+
+function renderExplanation(address: string, x: Explanation): void {
+  const out = byId("explain-output");
+  if (!out) return;
+  out.textContent = "";
+  out.append(el("h3", `${address}: ${x.title}`), el("p", x.message));
+  if (x.inputs.length) {
+    out.append(el("h4", "Inputs used"));
+    const from = { literal: "typed in the formula", cell: "read from the cell", default: "omitted: the default", expression: "a calculation" };
+    out.append(table(x.inputs.map((i) => [i.name, i.text || "—", cellText(i.value), from[i.from]]), ["argument", "as written", "value", "where from"]));
+  }
+  if (x.table) {
+    out.append(el("h4", x.tableTitle ?? "Breakdown"), table(x.table));
+  }
+}
+
+function showStatus(text: string): void {
+  const s = byId("status");
+  if (s) s.textContent = text;
 }
 
 async function start(): Promise<void> {
-  const insideOffice = typeof Office !== "undefined" && typeof Office.onReady === "function";
-  if (insideOffice) {
+  let inExcel = false;
+  if (typeof Office !== "undefined" && typeof Office.onReady === "function") {
     const info = await Office.onReady();
-    if (!info.host) document.getElementById("host-notice")?.removeAttribute("hidden");
-  } else {
-    document.getElementById("host-notice")?.removeAttribute("hidden");
+    inExcel = info.host === Office.HostType.Excel;
   }
-  const response = await fetch("functions.json");
-  const metadata = (await response.json()) as { functions: FunctionMetadata[] };
-  const search = document.getElementById("search") as HTMLInputElement | null;
-  renderReference(metadata.functions, "");
-  search?.addEventListener("input", () => renderReference(metadata.functions, search.value));
+  const notice = byId("host-notice");
+  if (!inExcel && notice) notice.hidden = false;
+  for (const id of ["insert-budget", "explain-cell"]) {
+    const b = byId<HTMLButtonElement>(id);
+    if (b) b.disabled = !inExcel;
+  }
+  const metadata = ((await (await fetch("functions.json")).json()) as { functions: FunctionMetadata[] }).functions;
+  const search = byId<HTMLInputElement>("search");
+  renderReference(metadata, "");
+  search?.addEventListener("input", () => renderReference(metadata, search.value));
+  if (!inExcel) return;
+  byId("insert-budget")?.addEventListener("click", () => {
+    insertSiteBudget(Excel)
+      .then((name) => showStatus(`Budget written on the new sheet "${name}".`))
+      .catch((e) => showStatus(`Could not insert the budget: ${e instanceof Error ? e.message : String(e)}`));
+  });
+  byId("explain-cell")?.addEventListener("click", () => {
+    explainActiveCell(Excel, metadata)
+      .then(({ address, explanation }) => renderExplanation(address, explanation))
+      .catch((e) => showStatus(`Could not read the cell: ${e instanceof Error ? e.message : String(e)}`));
+  });
 }
 
 if (typeof document !== "undefined") {
   start().catch((e) => {
-    const list = document.getElementById("reference");
+    const list = byId("reference");
     if (list) list.textContent = `Could not load the function reference: ${String(e)}`;
   });
 }

@@ -1,0 +1,157 @@
+/**
+ * airtally — Airtally without Excel.
+ *
+ *   airtally recalc BOOK.xlsx [--out OUT.xlsx] [--sheet NAME]... [--quiet]
+ *   airtally eval '=AIRTALLY.RATE("HE MCS11 2SS 80MHz")'
+ *
+ * Exit codes (also in README and `airtally --help`):
+ *   0 every formula has a value; 1 some cells are errors; 2 usage, file or
+ *   build problem; 3 the workbook has a circular reference.
+ */
+import * as fs from "fs";
+import * as path from "path";
+import { DEFAULT_DIST, loadAirtally, type AirtallyFunction } from "./bundle";
+import { evaluateFormula, isCellError, recalc, type Value } from "./engine";
+import { errorList, formatValue, sheetTable } from "./table";
+import { readBook, writeResults } from "./xlsx";
+
+export const EXIT = { ok: 0, cellErrors: 1, usage: 2, cycle: 3 } as const;
+
+export const HELP = `airtally — recalculate Airtally workbooks without Excel
+
+Usage:
+  airtally recalc BOOK.xlsx [--out OUT.xlsx] [--sheet NAME]... [--quiet]
+      Evaluate every formula (native and AIRTALLY.*) in dependency order and
+      print each sheet as a table, then every error cell with its message.
+      --out      write a copy with the recalculated values cached in it
+      --sheet    print only this sheet (repeatable; all are still computed)
+      --quiet    print only the errors
+  airtally eval FORMULA
+      Evaluate one formula, e.g. airtally eval '=AIRTALLY.RATE("HE MCS11 2SS 80MHz")'
+  airtally --help
+
+AIRTALLY.* calls run the built add-in (dist/functions.js; set AIRTALLY_DIST
+to use another build). A saved workbook may spell them _xldudf_AIRTALLY_NAME;
+both forms are read.
+
+Exit codes:
+  0  every formula has a value
+  1  some cells are errors (#VALUE!, #N/A, #SPILL!, ...; listed with messages)
+  2  usage error, unreadable file, or the add-in is not built
+  3  the workbook has a circular reference (#CYCLE!, listed per cell)
+`;
+
+export interface Io {
+  out: (text: string) => void;
+  err: (text: string) => void;
+}
+
+const defaultIo: Io = { out: (t) => process.stdout.write(t), err: (t) => process.stderr.write(t) };
+
+function distDir(): string {
+  return process.env.AIRTALLY_DIST ? path.resolve(process.env.AIRTALLY_DIST) : DEFAULT_DIST;
+}
+
+function formatResult(v: Value | Value[][]): string {
+  if (Array.isArray(v)) return v.map((row) => row.map(formatValue).join("\t")).join("\n");
+  if (isCellError(v)) return `${v.error}${v.message ? ` ${v.message}` : ""}`;
+  return formatValue(v);
+}
+
+async function runRecalc(args: string[], io: Io, functions: Map<string, AirtallyFunction>): Promise<number> {
+  let file: string | undefined;
+  let outFile: string | undefined;
+  const only: string[] = [];
+  let quiet = false;
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    if (a === "--out" || a === "--sheet") {
+      const v = args[++i];
+      if (!v) return usage(io, `${a} needs a value`);
+      if (a === "--out") outFile = v;
+      else only.push(v);
+    } else if (a === "--quiet") quiet = true;
+    else if (a.startsWith("-")) return usage(io, `unknown option ${a}`);
+    else if (!file) file = a;
+    else return usage(io, `unexpected argument ${a}`);
+  }
+  if (!file) return usage(io, "recalc needs a workbook (.xlsx)");
+  if (!fs.existsSync(file)) {
+    io.err(`airtally: no such file: ${file}\n`);
+    return EXIT.usage;
+  }
+  let loaded;
+  try {
+    loaded = await readBook(file);
+  } catch (e) {
+    io.err(`airtally: cannot read ${file} as an .xlsx workbook: ${e instanceof Error ? e.message : String(e)}\n`);
+    return EXIT.usage;
+  }
+  const missing = only.filter((n) => !loaded.book.sheets.some((s) => s.name.toUpperCase() === n.toUpperCase()));
+  if (missing.length) return usage(io, `no sheet named ${missing.join(", ")} (sheets: ${loaded.book.sheets.map((s) => s.name).join(", ")})`);
+  const result = recalc(loaded.book, functions, {
+    progressEvery: 1000,
+    onProgress: (done, total) => io.err(`airtally: ${done}/${total} formulas\n`),
+  });
+  if (!quiet) {
+    for (const s of result.sheets) {
+      if (only.length && !only.some((n) => n.toUpperCase() === s.name.toUpperCase())) continue;
+      io.out(sheetTable(s.name, s.cells) + "\n");
+    }
+  }
+  const errors = errorList(result);
+  io.out(`${result.formulaCount} formulas, ${result.errors.length} error cells, ${result.cycles.length} circular references\n`);
+  if (errors) io.out(errors + "\n");
+  if (outFile) {
+    try {
+      writeResults(loaded.workbook, result);
+      await loaded.workbook.xlsx.writeFile(outFile);
+      io.err(`airtally: wrote ${outFile}\n`);
+    } catch (e) {
+      io.err(`airtally: cannot write ${outFile}: ${e instanceof Error ? e.message : String(e)}\n`);
+      return EXIT.usage;
+    }
+  }
+  if (result.cycles.length) return EXIT.cycle;
+  return result.errors.length ? EXIT.cellErrors : EXIT.ok;
+}
+
+function usage(io: Io, message: string): number {
+  io.err(`airtally: ${message}\n\n${HELP}`);
+  return EXIT.usage;
+}
+
+/** Run the CLI with arguments (without node and script); returns the exit code, never throws. */
+export async function main(argv: string[], io: Io = defaultIo): Promise<number> {
+  try {
+    const [command, ...rest] = argv;
+    if (!command || command === "--help" || command === "-h" || command === "help") {
+      io.out(HELP);
+      return command ? EXIT.ok : EXIT.usage;
+    }
+    if (command !== "recalc" && command !== "eval") return usage(io, `unknown command ${command}`);
+    let functions: Map<string, AirtallyFunction>;
+    try {
+      functions = loadAirtally(distDir());
+    } catch (e) {
+      io.err(`airtally: ${e instanceof Error ? e.message : String(e)}\n`);
+      return EXIT.usage;
+    }
+    if (command === "recalc") return await runRecalc(rest, io, functions);
+    if (rest.length !== 1) return usage(io, "eval takes one formula (quote it for the shell)");
+    const value = evaluateFormula(rest[0], functions);
+    io.out(formatResult(value) + "\n");
+    const cells = Array.isArray(value) ? value.flat() : [value];
+    if (cells.some((c) => isCellError(c) && c.error === "#CYCLE!")) return EXIT.cycle;
+    return cells.some(isCellError) ? EXIT.cellErrors : EXIT.ok;
+  } catch (e) {
+    io.err(`airtally: unexpected failure: ${e instanceof Error ? e.stack ?? e.message : String(e)}\n`);
+    return EXIT.usage;
+  }
+}
+
+if (require.main === module) {
+  main(process.argv.slice(2)).then((code) => {
+    process.exitCode = code;
+  });
+}
