@@ -71,7 +71,8 @@ module.exports = (env, argv) => {
       taskpane: "./src/taskpane/taskpane.ts",
     },
     output: {
-      path: path.resolve(__dirname, "dist"),
+      // AIRTALLY_OUT builds elsewhere (the hosting test builds into a temporary folder).
+      path: path.resolve(__dirname, process.env.AIRTALLY_OUT || "dist"),
       filename: "[name].js",
       clean: true,
     },
@@ -96,12 +97,14 @@ module.exports = (env, argv) => {
           {
             from: "manifest.xml",
             to: "manifest.xml",
-            transform: (content) => content.toString().split(DEV_ORIGIN).join(origin),
+            // URLs first, then the bare origin (AppDomain) to the host's scheme and authority.
+            transform: (content) =>
+              content.toString().split(DEV_ORIGIN).join(origin).split(DEV_ORIGIN.slice(0, -1)).join(new URL(origin).origin),
           },
         ],
       }),
       new HelpPagesPlugin({ input: "./src/functions/functions.ts" }),
-      new RewriteOriginPlugin(origin, /\.(json|html)$/),
+      new RewriteOriginPlugin(origin, /\.(json|html|js)$/),
     ],
   };
 };

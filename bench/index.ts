@@ -3,7 +3,8 @@
  * run by jest; numbers depend on the machine, so every speed is printed as a
  * ratio against a baseline measured in the same process, in the same run.
  *
- *   1. Per function: calls/s in the core (src/core) and through the built
+ *   1. Per function: calls/s in the core (src/core bundled as a library,
+ *      bench/coreLibrary.ts) and through the built
  *      bundle (dist/functions.js in a bare vm, as a host calls it), each
  *      against an inline-arithmetic baseline of the same equation. Target for
  *      closed-form functions: ≥ 0.5× the baseline (PASS/FAIL printed).
@@ -22,14 +23,13 @@ import { execFileSync } from "child_process";
 import * as fs from "fs";
 import * as path from "path";
 import * as zlib from "zlib";
-import * as core from "../src/core/index";
-import * as rf from "../src/core/rf/index";
-import * as contention from "../src/core/contention/index";
-import * as mac from "../src/core/mac/index";
+import { loadCoreLibrary } from "./coreLibrary";
 import * as vm from "vm";
 import { loadBundle, SpreadsheetError } from "../test/bundle/loadBundle";
 
-// Bound once: module namespaces compiled to CommonJS expose exports through getters, which would be timed on every call.
+// The core as a library (bench/coreLibrary.ts); bound once so the namespace lookups are not timed.
+const core = loadCoreLibrary();
+const { rf, contention, mac } = core;
 const { rateMbps, txtimeUs, psduFit, sensitivityDbm, parseLink } = core;
 const { fsplDb, noiseFloorDbm } = rf;
 const { saturationGoodputMbps } = contention;

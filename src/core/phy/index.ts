@@ -4,9 +4,9 @@
  */
 import { parseLink, type Link } from "../link";
 import { finiteNumber, integerInRange } from "../args";
-import { invalid } from "../errors";
+import { AirtallyError, invalid } from "../errors";
 import { familyModule } from "./registry";
-import type { TxTime } from "./types";
+import type { PhyFamily, TxTime } from "./types";
 import type { Bytes, Dbm, MbPerSecond, Microseconds } from "../units";
 
 export type { TxTime, TxTimeTerm, PhyFamily } from "./types";
@@ -18,33 +18,85 @@ export function asLink(link: unknown): Link {
   return parseLink(link);
 }
 
+/**
+ * What a sheet asks of one link again and again — its rate, its largest PSDU,
+ * its sensitivity and the TXTIMEs already computed — kept per link so that a
+ * workbook of thousands of rows pointing at a few link cells pays for each
+ * equation once. Keyed by the text as given and by the canonical text (for
+ * Link objects), bounded like the parse cache (STYLE.md: module state only as
+ * bounded caches). Values are the same numbers the family modules return.
+ */
+interface LinkFacts {
+  readonly link: Link;
+  readonly module: PhyFamily;
+  readonly rateMbps: MbPerSecond;
+  readonly maxPsduBytes: Bytes;
+  sensitivity: Dbm | AirtallyError | undefined;
+  readonly txtimeByPsdu: Map<number, Microseconds>;
+}
+
+const FACTS_LIMIT = 2048;
+/** TXTIMEs remembered per link (distinct PSDU lengths); the map starts over when full. */
+const TXTIMES_PER_LINK = 1024;
+const factsCache = new Map<string, LinkFacts>();
+
+function factsOf(link: unknown): LinkFacts {
+  const key = typeof link === "string" ? link : typeof link === "object" && link !== null && "text" in link ? (link as Link).text : undefined;
+  if (key !== undefined) {
+    const hit = factsCache.get(key);
+    if (hit !== undefined) return hit;
+  }
+  const l = asLink(link);
+  const module = familyModule(l.family);
+  const facts: LinkFacts = {
+    link: l,
+    module,
+    rateMbps: module.rateMbps(l),
+    maxPsduBytes: module.maxPsduBytes(l),
+    sensitivity: undefined,
+    txtimeByPsdu: new Map(),
+  };
+  if (factsCache.size >= FACTS_LIMIT) factsCache.delete(factsCache.keys().next().value as string);
+  factsCache.set(key ?? l.text, facts);
+  return facts;
+}
+
 /** PHY data rate, Mb/s. */
 export function rateMbps(link: unknown): MbPerSecond {
-  const l = asLink(link);
-  return familyModule(l.family).rateMbps(l);
+  return factsOf(link).rateMbps;
 }
 
 /** Largest PSDU of this link, octets. */
 export function maxPsduBytes(link: unknown): Bytes {
-  const l = asLink(link);
-  return familyModule(l.family).maxPsduBytes(l);
+  return factsOf(link).maxPsduBytes;
+}
+
+function checkedPsdu(f: LinkFacts, psduBytes: unknown): Bytes {
+  const max = f.maxPsduBytes;
+  if (typeof psduBytes === "number" && psduBytes > max && Number.isFinite(psduBytes)) {
+    invalid(`psdu_bytes: ${psduBytes} exceeds the largest ${f.link.family} PSDU (${max} octets) for ${f.link.text}`);
+  }
+  return integerInRange("psdu_bytes", psduBytes, 0, max, "octets");
 }
 
 /** TXTIME with its terms; psdu_bytes must be a whole number from 0 to the family's maximum PSDU length. */
 export function txtime(link: unknown, psduBytes: unknown): TxTime {
-  const l = asLink(link);
-  const module = familyModule(l.family);
-  const max = module.maxPsduBytes(l);
-  if (typeof psduBytes === "number" && psduBytes > max && Number.isFinite(psduBytes)) {
-    invalid(`psdu_bytes: ${psduBytes} exceeds the largest ${l.family} PSDU (${max} octets) for ${l.text}`);
-  }
-  const n = integerInRange("psdu_bytes", psduBytes, 0, max, "octets");
-  return module.txtime(l, n);
+  const f = factsOf(link);
+  return f.module.txtime(f.link, checkedPsdu(f, psduBytes));
 }
 
-/** TXTIME, µs. */
+/** TXTIME, µs (remembered per link and PSDU length). */
 export function txtimeUs(link: unknown, psduBytes: unknown): Microseconds {
-  return txtime(link, psduBytes).totalUs;
+  const f = factsOf(link);
+  if (typeof psduBytes === "number") {
+    const hit = f.txtimeByPsdu.get(psduBytes);
+    if (hit !== undefined) return hit;
+  }
+  const n = checkedPsdu(f, psduBytes);
+  const total = f.module.txtime(f.link, n).totalUs;
+  if (f.txtimeByPsdu.size >= TXTIMES_PER_LINK) f.txtimeByPsdu.clear();
+  f.txtimeByPsdu.set(n, total);
+  return total;
 }
 
 /**
@@ -53,11 +105,10 @@ export function txtimeUs(link: unknown, psduBytes: unknown): Microseconds {
  * 0..maxPsdu is exact.
  */
 export function psduFit(link: unknown, durationUs: unknown): Bytes {
-  const l = asLink(link);
+  const { link: l, module, maxPsduBytes: max } = factsOf(link);
   const d = finiteNumber("duration_us", durationUs);
   if (d < 0) invalid(`duration_us: must be 0 or more µs, got ${d}`);
-  const module = familyModule(l.family);
-  let hi = module.maxPsduBytes(l);
+  let hi = max;
   if (module.txtime(l, 0).totalUs > d) return 0;
   if (module.txtime(l, hi).totalUs <= d) return hi;
   let lo = 0; // invariant: txtime(lo) ≤ d < txtime(hi)
@@ -69,10 +120,20 @@ export function psduFit(link: unknown, durationUs: unknown): Bytes {
   return lo;
 }
 
-/** Minimum input sensitivity, dBm. */
+/** Minimum input sensitivity, dBm (#N/A where the standard gives none, e.g. HT MCS 33–76). */
 export function sensitivityDbm(link: unknown): Dbm {
-  const l = asLink(link);
-  return familyModule(l.family).sensitivityDbm(l);
+  const f = factsOf(link);
+  if (typeof f.sensitivity === "number") return f.sensitivity;
+  if (f.sensitivity === undefined) {
+    try {
+      f.sensitivity = f.module.sensitivityDbm(f.link);
+      return f.sensitivity;
+    } catch (e) {
+      if (!(e instanceof AirtallyError)) throw e;
+      f.sensitivity = e;
+    }
+  }
+  throw f.sensitivity;
 }
 
 /** Non-HT reference rate used to choose the control response rate, Mb/s. */
