@@ -126,6 +126,15 @@ interface Row {
   baseline: number;
   closedForm: boolean;
   note?: string;
+  /** Text-keyed functions: calls/s of one Map lookup of the same link text — the least any function of link text can cost. */
+  textFloor?: number;
+}
+
+/** Calls/s of a bare Map.get over the given texts: the floor under every function whose input is link text. */
+function textLookupRate(texts: readonly string[]): number {
+  const table = new Map(texts.map((t, i) => [t, i] as const));
+  const mask = texts.length - 1;
+  return rate((i) => table.get(texts[i & mask])!);
 }
 
 function perFunction(): Row[] {
@@ -155,6 +164,7 @@ function perFunction(): Row[] {
       bundle: rate((i) => rateFn(cases[i & m].link)),
       vm: rate((i) => inVm.functions.get("RATE")!(cases[i & m].link)),
       closedForm: true,
+      textFloor: textLookupRate(cases.map((c) => c.link)),
     });
   }
 
@@ -171,6 +181,7 @@ function perFunction(): Row[] {
       core: rate((i) => txtimeUs(OFDM_LINKS[i & 7], PSDUS[i & 255])),
       bundle: rate((i) => f(OFDM_LINKS[i & 7], PSDUS[i & 255])),
       closedForm: true,
+      textFloor: textLookupRate(OFDM_LINKS),
     });
   }
 
@@ -203,6 +214,7 @@ function perFunction(): Row[] {
       core: rate((i) => sensitivityDbm(OFDM_LINKS[i & 7])),
       bundle: rate((i) => f(OFDM_LINKS[i & 7])),
       closedForm: true,
+      textFloor: textLookupRate(OFDM_LINKS),
     });
   }
 
@@ -256,8 +268,9 @@ function printPerFunction(rows: Row[]): boolean {
     const rb = r.bundle / r.baseline;
     const verdict = r.closedForm ? (rc >= 0.5 && rb >= 0.5 ? "PASS" : "FAIL") : `info (${r.note})`;
     if (r.closedForm && verdict === "FAIL") ok = false;
+    const floor = r.textFloor === undefined ? "" : `  (one Map lookup of the link text alone: ${(r.textFloor / r.baseline).toFixed(2)}×)`;
     console.log(
-      `   ${pad(r.name, 12)}${lpad(fmtRate(r.baseline), 12)}${lpad(fmtRate(r.core), 12)}${lpad(rc.toFixed(2), 7)}${lpad(fmtRate(r.bundle), 12)}${lpad(rb.toFixed(2), 7)}  ${verdict}`,
+      `   ${pad(r.name, 12)}${lpad(fmtRate(r.baseline), 12)}${lpad(fmtRate(r.core), 12)}${lpad(rc.toFixed(2), 7)}${lpad(fmtRate(r.bundle), 12)}${lpad(rb.toFixed(2), 7)}  ${verdict}${floor}`,
     );
   }
   const withVm = rows.find((r) => r.vm !== undefined);
