@@ -1,17 +1,5 @@
 import { radios } from "../../../src/core/budget/index";
-import { AirtallyError } from "../../../src/core/errors";
-
-function expectValueError(fn: () => unknown, argument: string): void {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(AirtallyError);
-    expect((e as AirtallyError).kind).toBe("value");
-    expect((e as AirtallyError).message.startsWith(`${argument}:`)).toBe(true);
-    return;
-  }
-  throw new Error("expected #VALUE!");
-}
+import { expectValueErrorNaming as expectValueError } from "../../_lib/expectError";
 
 describe("RADIOS: ceil(total_share ÷ (max_utilization − overhead_share))", () => {
   it("needs 3 radios for 1.9 channels at the default 70 % ceiling", () => {

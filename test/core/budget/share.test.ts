@@ -1,7 +1,7 @@
 import { clientShare, mixShare } from "../../../src/core/budget/index";
 import { goodputMbps } from "../../../src/core/mac/index";
 import { saturationGoodputMbps } from "../../../src/core/contention/index";
-import { AirtallyError } from "../../../src/core/errors";
+import { expectValueErrorNaming as expectValueError } from "../../_lib/expectError";
 
 /**
  * One station alone, OFDM 54 Mb/s at 5 GHz, 1500-octet packets, BE, CCMP-128, by hand:
@@ -12,18 +12,6 @@ import { AirtallyError } from "../../../src/core/errors";
  *   goodput = 8 × 1500 ÷ 406.5 = 29.52 Mb/s
  */
 const OFDM54_GOODPUT_Mbps = (8 * 1500) / (43 + 67.5 + 252 + 16 + 28);
-
-function expectValueError(fn: () => unknown, argument: string): void {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(AirtallyError);
-    expect((e as AirtallyError).kind).toBe("value");
-    expect((e as AirtallyError).message.startsWith(`${argument}:`)).toBe(true);
-    return;
-  }
-  throw new Error("expected #VALUE!");
-}
 
 describe("CLIENTSHARE", () => {
   it("is demand ÷ the hand-derived goodput for one station: 10 Mb/s at OFDM 54 Mb/s", () => {

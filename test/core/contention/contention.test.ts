@@ -1,6 +1,6 @@
 import { collisionProbability, contentionShare, edcaMix, saturationGoodputMbps } from "../../../src/core/contention";
 import { channelAccess, goodputMbps } from "../../../src/core/mac";
-import { AirtallyError } from "../../../src/core/errors";
+import { expectValueErrorNaming as valueError } from "../../_lib/expectError";
 
 const OFDM = "OFDM 54Mbps 5GHz";
 const HE = "HE MCS7 1SS 20MHz 5GHz";
@@ -16,18 +16,6 @@ function bianchiP(n: number, w: number, m: number): number {
     else hi = tau;
   }
   return 1 - Math.pow(1 - lo, n - 1);
-}
-
-function valueError(f: () => unknown, argument: string): void {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(AirtallyError);
-    expect((e as AirtallyError).kind).toBe("value");
-    expect((e as AirtallyError).message.startsWith(`${argument}:`)).toBe(true);
-    return;
-  }
-  throw new Error("expected an AirtallyError");
 }
 
 describe("COLLIDE", () => {

@@ -1,6 +1,6 @@
 import { channelAccess, aggCount, goodputMbps } from "../../../src/core/mac";
 import { txtimeUs } from "../../../src/core/phy";
-import { expectValueError } from "./_expect";
+import { expectValueError } from "../../_lib/expectError";
 
 const ERP = "ERP-OFDM 54Mbps 2.4GHz";
 const OFDM5 = "OFDM 54Mbps 5GHz";

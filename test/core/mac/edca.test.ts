@@ -1,5 +1,5 @@
 import { edcaParameters, aifsUs, parseAccess, parseProtection } from "../../../src/core/mac";
-import { expectValueError } from "./_expect";
+import { expectValueError } from "../../_lib/expectError";
 
 const OFDM5 = "OFDM 54Mbps 5GHz";
 const DSSS = "HR-DSSS 11Mbps 2.4GHz";

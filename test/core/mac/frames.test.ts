@@ -1,5 +1,5 @@
 import { mpduBytes, ampduBytes, blockAckBytes, ACK_octets, RTS_octets, CTS_octets, BLOCK_ACK_REQ_octets } from "../../../src/core/mac";
-import { expectValueError } from "./_expect";
+import { expectValueError } from "../../_lib/expectError";
 
 describe("MPDU: QoS Data MPDU length (IEEE 802.11-2020 9.3.2.1, 12.5)", () => {
   it("wraps a 1500-octet packet with CCMP-128 by default", () => {

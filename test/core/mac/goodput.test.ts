@@ -1,5 +1,5 @@
 import { goodputMbps, efficiency, expectedTransmissions } from "../../../src/core/mac";
-import { expectValueError } from "./_expect";
+import { expectValueError } from "../../_lib/expectError";
 
 const ERP = "ERP-OFDM 54Mbps 2.4GHz";
 const OFDM5 = "OFDM 54Mbps 5GHz";

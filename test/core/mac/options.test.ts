@@ -1,5 +1,5 @@
 import { parseMacOptions, DEFAULT_MAC_OPTIONS } from "../../../src/core/mac";
-import { expectValueError } from "./_expect";
+import { expectValueError } from "../../_lib/expectError";
 
 describe("mac_options parsing (DESIGN.md §2)", () => {
   it("gives the defaults for an empty value", () => {

@@ -1,5 +1,4 @@
 import { parseLink } from "../../../src/core/link";
-import { AirtallyError } from "../../../src/core/errors";
 import {
   rateMbps,
   txtime,
@@ -19,19 +18,7 @@ import {
   SHORT_PREAMBLE_us,
   SHORT_HEADER_us,
 } from "../../../src/core/phy/dsss";
-
-/** Asserts a #VALUE! AirtallyError whose message matches. */
-function expectValueError(fn: () => unknown, message: RegExp): void {
-  let caught: unknown;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  expect(caught).toBeInstanceOf(AirtallyError);
-  expect((caught as AirtallyError).kind).toBe("value");
-  expect((caught as AirtallyError).message).toMatch(message);
-}
+import { expectValueError } from "../../_lib/expectError";
 
 describe("DSSS / HR-DSSS rates (IEEE 802.11-2020 15.1, 16.1)", () => {
   it("has 1 and 2 Mb/s for DSSS (Clause 15)", () => {

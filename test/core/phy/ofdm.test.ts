@@ -1,5 +1,4 @@
 import { parseLink } from "../../../src/core/link";
-import { AirtallyError } from "../../../src/core/errors";
 import {
   rateMbps,
   txtime,
@@ -20,20 +19,7 @@ import {
   T_PREAMBLE_us,
   T_SIGNAL_us,
 } from "../../../src/core/phy/ofdm";
-
-/** Asserts a #VALUE! AirtallyError whose message matches. */
-function expectValueError(fn: () => unknown, message: RegExp | string): void {
-  let caught: unknown;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  expect(caught).toBeInstanceOf(AirtallyError);
-  expect((caught as AirtallyError).kind).toBe("value");
-  if (typeof message === "string") expect((caught as AirtallyError).message).toBe(message);
-  else expect((caught as AirtallyError).message).toMatch(message);
-}
+import { expectValueError } from "../../_lib/expectError";
 
 describe("OFDM numerology (IEEE 802.11-2020 Table 17-5)", () => {
   it("has a 4 µs symbol", () => {
