@@ -278,3 +278,19 @@ describe("HE sensitivity, reference rate, MCS list", () => {
     expect(familyModule("HE").mcsValues).toEqual([0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11]);
   });
 });
+
+describe("HE SU TXTIME, a second independent hand derivation (802.11ax-2021 27.3.12 and 27.4.3)", () => {
+  // HE MCS0 1SS 20 MHz GI0.8 2xLTF PE16, 100 octets, LDPC:
+  // N_DBPS = 234 × 1 × 1/2 = 117; N_DBPS,short = 60 × 1 × 1/2 = 30 (N_SD,short 60 for a 242-tone RU).
+  // Payload 8·100 + 16 (SERVICE) = 816 bits; N_excess = 816 mod 117 = 114; N_SYM,init = ceil(816/117) = 7;
+  // a_init = min(ceil(114/30), 4) = 4. LDPC (IEEE 802.11-2020 19.3.11.7.5): N_pld = 7·117 = 819,
+  // N_avbits = 7·234 = 1638 → one 1944-bit codeword; N_shrt = 972 − 819 = 153, N_punc = 1944 − 1638 − 153 = 153;
+  // 153 > 0.1·1944·½ and 153 < 1.2·153·1 → extra symbol segment: a_init = 4 → N_SYM = 8, a = 1 → T_PE = 4 µs (PE16).
+  it("is 156 µs for 100 octets at MCS0 with LDPC, extra symbol included", () => {
+    expect(txtimeUs("HE MCS0 1SS 20MHz", 100)).toBeCloseTo(8 + 8 + 4 + 4 + 8 + 4 + 7.2 + 8 * 13.6 + 4, 9);
+  });
+  // The same with BCC: 816 + 6 tail = 822 bits; N_excess = 822 − 7·117 = 3 → N_SYM = 8, a = ceil(3/30) = 1 → T_PE = 4 µs.
+  it("is 156 µs for 100 octets at MCS0 with BCC, by padding alone", () => {
+    expect(txtimeUs("HE MCS0 1SS 20MHz BCC", 100)).toBeCloseTo(8 + 8 + 4 + 4 + 8 + 4 + 7.2 + 8 * 13.6 + 4, 9);
+  });
+});
