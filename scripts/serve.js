@@ -26,7 +26,8 @@ const TYPES = {
 };
 const CSP =
   "default-src 'self'; script-src 'self' https://appsforoffice.microsoft.com; style-src 'self' 'unsafe-inline'; " +
-  "img-src 'self' data:; connect-src 'self'; object-src 'none'; base-uri 'self'";
+  "img-src 'self' data:; connect-src 'self'; frame-src https://telemetryservice.firstpartyapps.oaspapps.com; " +
+  "object-src 'none'; base-uri 'self'";
 
 async function certificates() {
   const certs = require("office-addin-dev-certs");
