@@ -19,6 +19,7 @@ import {
   SHORT_HEADER_us,
 } from "../../../src/core/phy/dsss";
 import { expectValueError } from "../../_lib/expectError";
+import { durationSum } from "../../_lib/txtime";
 
 describe("DSSS / HR-DSSS rates (IEEE 802.11-2020 15.1, 16.1)", () => {
   it("has 1 and 2 Mb/s for DSSS (Clause 15)", () => {
@@ -99,7 +100,7 @@ describe("DSSS / HR-DSSS TXTIME (Clause 15/16 TXTIME equation)", () => {
     for (const link of links) {
       for (const n of [0, 1, 14, 1023, 1026, 1500, 4095]) {
         const t = txtime(link, n);
-        const sum = t.terms.filter((x) => x.adds).reduce((s, x) => s + x.value, 0);
+        const sum = durationSum(t);
         expect(sum).toBe(t.totalUs);
       }
     }

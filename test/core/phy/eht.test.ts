@@ -2,6 +2,7 @@ import { parseLink } from "../../../src/core/link";
 import { AirtallyError } from "../../../src/core/errors";
 import { maxPsduBytes, psduFit, rateMbps, sensitivityDbm, txtime, txtimeUs } from "../../../src/core/phy/index";
 import { familyModule } from "../../../src/core/phy/registry";
+import { durationSum } from "../../_lib/txtime";
 
 // Data subcarriers of the whole channel, 802.11be-2024 36.3.2 / 36.3.8 (N_SD): 20→234 … 320→3920.
 const N_SD: Record<number, number> = { 20: 234, 40: 468, 80: 980, 160: 1960, 320: 3920 };
@@ -59,7 +60,7 @@ describe("EHT TXTIME (802.11be-2024 36.4.3; padding as 36.3.13)", () => {
   const links = ["EHT MCS13 2SS 320MHz 6GHz", "EHT MCS7 80MHz RU242", "EHT MCS0 20MHz GI3.2", "EHT MCS12 4SS 160MHz PE8"];
   it.each(links)("sums its duration terms to the total (%s)", (l) => {
     const t = txtime(l, 5000);
-    const sum = t.terms.filter((x) => x.adds).reduce((s, x) => s + x.value, 0);
+    const sum = durationSum(t);
     expect(t.totalUs).toBeCloseTo(sum, 9);
   });
 

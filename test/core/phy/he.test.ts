@@ -10,6 +10,7 @@ import {
   txtimeUs,
 } from "../../../src/core/phy/index";
 import { familyModule } from "../../../src/core/phy/registry";
+import { durationSum } from "../../_lib/txtime";
 
 // Data subcarriers per RU, 802.11ax-2021 27.3.2 RU tables / 27.3.8 (N_SD).
 const N_SD: Record<string, number> = { RU26: 24, RU52: 48, RU106: 102, RU242: 234, RU484: 468, RU996: 980, RU2x996: 1960 };
@@ -140,7 +141,7 @@ describe("HE TXTIME (802.11ax-2021 27.4.3, pre-FEC padding 27.3.12, PE 27.3.13)"
   const links = ["HE MCS7 2SS 80MHz", "HE MCS0 20MHz ER", "HE MCS5 20MHz RU26", "HE MCS7 20MHz BCC 2.4GHz", "HE MCS11 8SS 160MHz GI3.2"];
   it.each(links)("sums its duration terms to the total (%s)", (l) => {
     const t = txtime(l, 4000);
-    const sum = t.terms.filter((x) => x.adds).reduce((s, x) => s + x.value, 0);
+    const sum = durationSum(t);
     expect(t.totalUs).toBeCloseTo(sum, 9);
   });
 
