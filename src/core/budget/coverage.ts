@@ -9,9 +9,12 @@ import { atLeast, atMost, ceilRatio, nonNegative, optionalNumber } from "../rf/_
 /** Catalog default cell overlap (DESIGN.md §2; common practice: 10–20 % overlap between neighbouring cells for roaming). */
 export const DEFAULT_OVERLAP_SHARE: Share = 0.15;
 
-/** Area of a regular hexagon inscribed in a circle of radius r: six equilateral triangles of side r, 6 × (√3/4)·r² = (3√3/2)·r². */
+/** Six equilateral triangles of side r: 6 × (√3/4)·r² = (3√3/2)·r². */
+const HEXAGON_AREA_PER_R2 = (3 * Math.sqrt(3)) / 2;
+
+/** Area of a regular hexagon inscribed in a circle of radius r: (3√3/2)·r². */
 export function hexagonAreaM2(circumradiusM: Meters): number {
-  return ((3 * Math.sqrt(3)) / 2) * circumradiusM * circumradiusM;
+  return HEXAGON_AREA_PER_R2 * circumradiusM * circumradiusM;
 }
 
 /**
@@ -34,7 +37,12 @@ export function coverageAps(areaM2: unknown, reachM: unknown, overlapShare?: unk
   const area = atMost("area_m2", nonNegative("area_m2", finiteNumber("area_m2", areaM2), "m²"), 1e8, "m²");
   const reach = atMost("reach_m", atLeast("reach_m", finiteNumber("reach_m", reachM), 0.1, "m"), 1e6, "m");
   const overlap = optionalNumber("overlap_share", overlapShare, DEFAULT_OVERLAP_SHARE);
-  if (!(overlap >= 0 && overlap < 1)) invalid(`overlap_share: must be from 0 up to (not including) 1, got ${overlap}`);
+  if (!(overlap >= 0 && overlap < 1)) badOverlap(overlap);
   if (area === 0) return 0;
   return Math.max(1, ceilRatio(area / hexagonAreaM2(reach * (1 - overlap))));
+}
+
+/** Out of line, so the checks above stay small enough to inline (src/core/args.ts). */
+function badOverlap(overlap: number): never {
+  invalid(`overlap_share: must be from 0 up to (not including) 1, got ${overlap}`);
 }

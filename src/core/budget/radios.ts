@@ -26,10 +26,16 @@ export function radios(totalShare: unknown, maxUtilization?: unknown, overheadSh
   // A million channels' worth of airtime is far beyond any site; the bound keeps the count finite.
   const total = atMost("total_share", nonNegative("total_share", finiteNumber("total_share", totalShare), ""), 1e6, "");
   const ceiling = optionalNumber("max_utilization", maxUtilization, DEFAULT_MAX_UTILIZATION);
-  if (!(ceiling > 0 && ceiling < 1)) invalid(`max_utilization: must be above 0 and below 1 (a share of the channel's time), got ${ceiling}`);
+  if (!(ceiling > 0 && ceiling < 1)) badCeiling(ceiling);
   const overhead = nonNegative("overhead_share", optionalNumber("overhead_share", overheadShare, 0), "");
-  if (overhead >= ceiling) {
-    invalid(`overhead_share: ${overhead} leaves no room under max_utilization ${ceiling}; it must be below max_utilization`);
-  }
+  if (overhead >= ceiling) noRoom(overhead, ceiling);
   return ceilRatio(total / (ceiling - overhead));
+}
+
+// Refusals out of line, so the checks above stay small enough to inline (src/core/args.ts).
+function badCeiling(ceiling: number): never {
+  invalid(`max_utilization: must be above 0 and below 1 (a share of the channel's time), got ${ceiling}`);
+}
+function noRoom(overhead: number, ceiling: number): never {
+  invalid(`overhead_share: ${overhead} leaves no room under max_utilization ${ceiling}; it must be below max_utilization`);
 }

@@ -121,13 +121,16 @@ export function ampduLength(mpdu: Bytes, count: number): Bytes {
 
 /** packet_bytes check shared by every MAC entry point. */
 export function checkPacketBytes(packetBytes: unknown): Bytes {
-  if (typeof packetBytes === "number" && Number.isFinite(packetBytes) && packetBytes > PACKET_MAX_octets) {
-    invalid(
-      `packet_bytes: ${packetBytes} is over ${PACKET_MAX_octets} octets, the largest packet an MSDU carries ` +
-        `(${MSDU_MAX_octets}-octet MSDU less ${LLC_SNAP_octets} octets of LLC/SNAP); use AMSDU=n to carry more per MPDU`,
-    );
-  }
+  if (typeof packetBytes === "number" && Number.isFinite(packetBytes) && packetBytes > PACKET_MAX_octets) packetTooLarge(packetBytes);
   return integerInRange("packet_bytes", packetBytes, 1, PACKET_MAX_octets, "octets");
+}
+
+/** Out of line, so the check above stays small enough to inline (src/core/args.ts). */
+function packetTooLarge(packetBytes: number): never {
+  invalid(
+    `packet_bytes: ${packetBytes} is over ${PACKET_MAX_octets} octets, the largest packet an MSDU carries ` +
+      `(${MSDU_MAX_octets}-octet MSDU less ${LLC_SNAP_octets} octets of LLC/SNAP); use AMSDU=n to carry more per MPDU`,
+  );
 }
 
 /**
@@ -143,10 +146,12 @@ export function mpduBytes(packetBytes: unknown, macOptions?: unknown): Bytes {
   const packet = checkPacketBytes(packetBytes);
   const options = parseMacOptions(macOptions);
   const mpdu = dataMpduBytes(packet, options, true);
-  if (mpdu > MPDU_MAX_octets) {
-    invalid(`mac_options: AMSDU=${options.amsdu} of ${packet}-octet packets makes a ${mpdu}-octet MPDU, over the largest MPDU of any PHY (${MPDU_MAX_octets} octets, VHT/HE/EHT); use fewer MSDUs`);
-  }
+  if (mpdu > MPDU_MAX_octets) amsduTooLarge(options.amsdu, packet, mpdu);
   return mpdu;
+}
+
+function amsduTooLarge(amsdu: number, packet: Bytes, mpdu: Bytes): never {
+  invalid(`mac_options: AMSDU=${amsdu} of ${packet}-octet packets makes a ${mpdu}-octet MPDU, over the largest MPDU of any PHY (${MPDU_MAX_octets} octets, VHT/HE/EHT); use fewer MSDUs`);
 }
 
 /**

@@ -124,7 +124,12 @@ function setOnce<K extends keyof MacOptions>(o: Mutable<MacOptions>, seen: Set<s
 
 /** Parse mac_options text; null, undefined or "" give the defaults. */
 export function parseMacOptions(text: unknown): MacOptions {
+  // The common case — no options — stays a few bytes so callers inline it; the parser is out of line.
   if (isMissing(text)) return DEFAULT_MAC_OPTIONS;
+  return parseMacOptionsText(text);
+}
+
+function parseMacOptionsText(text: unknown): MacOptions {
   if (typeof text === "object" && text !== null && "cipher" in text && "amsdu" in text) return text as MacOptions;
   if (typeof text !== "string") invalid(`mac_options: expected text such as "GCMP-256 AMSDU=2", got ${describe(text)}`);
   const o: Mutable<MacOptions> = { ...DEFAULT_MAC_OPTIONS };

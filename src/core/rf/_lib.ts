@@ -6,6 +6,30 @@
 import { finiteNumber, isMissing } from "../args";
 import { invalid } from "../errors";
 
+/**
+ * The refusal of every check below, out of line: the checks stay a comparison
+ * and a call, small enough for the JIT to inline a chain of them (see
+ * src/core/args.ts). The message is only built when a check fails.
+ */
+function refuse(name: string, requirement: string, value: number): never {
+  invalid(`${name}: must be ${requirement}, got ${value}`);
+}
+function withUnit(unit: string): string {
+  return unit ? " " + unit : "";
+}
+function tooLarge(name: string, max: number, unit: string, value: number): never {
+  refuse(name, `at most ${max}${withUnit(unit)}`, value);
+}
+function tooSmall(name: string, min: number, unit: string, value: number): never {
+  refuse(name, `at least ${min}${withUnit(unit)}`, value);
+}
+function notPositive(name: string, unit: string, value: number): never {
+  refuse(name, `greater than 0${withUnit(unit)}`, value);
+}
+function negative(name: string, unit: string, value: number): never {
+  refuse(name, `0${withUnit(unit)} or more`, value);
+}
+
 /** A finite number, or `fallback` when the argument was left empty. */
 export function optionalNumber(name: string, value: unknown, fallback: number): number {
   return isMissing(value) ? fallback : finiteNumber(name, value);
@@ -17,31 +41,31 @@ export function optionalNumber(name: string, value: unknown, fallback: number): 
  * Infinity or underflow it to 0 (DESIGN.md §4: never a non-finite result).
  */
 export function atMost(name: string, value: number, max: number, unit: string): number {
-  if (value > max) invalid(`${name}: must be at most ${max}${unit ? " " + unit : ""}, got ${value}`);
+  if (value > max) tooLarge(name, max, unit, value);
   return value;
 }
 
 /** A finite number ≥ `min` (min > 0): keeps logarithms and divisions away from underflow. */
 export function atLeast(name: string, value: number, min: number, unit: string): number {
-  if (!(value >= min)) invalid(`${name}: must be at least ${min}${unit ? " " + unit : ""}, got ${value}`);
+  if (!(value >= min)) tooSmall(name, min, unit, value);
   return value;
 }
 
 /** A finite number > 0. */
 export function positive(name: string, value: number, unit: string): number {
-  if (!(value > 0)) invalid(`${name}: must be greater than 0${unit ? " " + unit : ""}, got ${value}`);
+  if (!(value > 0)) notPositive(name, unit, value);
   return value;
 }
 
 /** A finite number ≥ 0. */
 export function nonNegative(name: string, value: number, unit: string): number {
-  if (!(value >= 0)) invalid(`${name}: must be 0${unit ? " " + unit : ""} or more, got ${value}`);
+  if (!(value >= 0)) negative(name, unit, value);
   return value;
 }
 
 /** A whole number ≥ 0. */
 export function wholeNonNegative(name: string, value: number): number {
-  if (!Number.isInteger(value) || value < 0) invalid(`${name}: must be a whole number 0 or more, got ${value}`);
+  if (!Number.isInteger(value) || value < 0) refuse(name, "a whole number 0 or more", value);
   return value;
 }
 

@@ -75,13 +75,22 @@ const INDOOR_MAX_DISTANCE_m: Meters = 1e6;
 /** eirp_dbm, target_dbm and rx_gain_dbi are levels a planner can meet: ±300 dB keeps REACH finite. */
 const LEVEL_LIMIT_dB = 300;
 
+// Refusals out of line, so the checks stay small enough to inline (src/core/args.ts).
+function outsideBands(f: number): never {
+  invalid(`freq_mhz: ${P1238_EDITION} covers ${P1238_MIN_FREQ_MHz} to ${P1238_MAX_FREQ_MHz} MHz, got ${f}`);
+}
+function badDistancePower(n: number): never {
+  invalid(`distance_power: the coefficient N must be above 0 and at most 100 (P.1238 tables give 17–33), got ${n}`);
+}
+function belowModel(d: number): never {
+  invalid(`distance_m: the P.1238 model holds from ${P1238_MIN_DISTANCE_m} m, got ${d}`);
+}
+
 function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, floorLossDb: unknown): IndoorModel {
   const f = finiteNumber("freq_mhz", freqMHz);
-  if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) {
-    invalid(`freq_mhz: ${P1238_EDITION} covers ${P1238_MIN_FREQ_MHz} to ${P1238_MAX_FREQ_MHz} MHz, got ${f}`);
-  }
+  if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) outsideBands(f);
   const n = optionalNumber("distance_power", distancePower, DEFAULT_DISTANCE_POWER);
-  if (!(n > 0 && n <= 100)) invalid(`distance_power: the coefficient N must be above 0 and at most 100 (P.1238 tables give 17–33), got ${n}`);
+  if (!(n > 0 && n <= 100)) badDistancePower(n);
   return {
     freqMHz: f,
     distancePower: n,
@@ -125,7 +134,7 @@ export function indoorLossDb(
   floorLossDb?: unknown,
 ): Db {
   const d = atMost("distance_m", finiteNumber("distance_m", distanceM), INDOOR_MAX_DISTANCE_m, "m");
-  if (d < P1238_MIN_DISTANCE_m) invalid(`distance_m: the P.1238 model holds from ${P1238_MIN_DISTANCE_m} m, got ${d}`);
+  if (d < P1238_MIN_DISTANCE_m) belowModel(d);
   const model = readModel(freqMHz, distancePower, floors, floorLossDb);
   return lossAtOneMetreDb(model) + model.distancePower * Math.log10(d);
 }
