@@ -31,16 +31,53 @@ interface LinkFacts {
   readonly module: PhyFamily;
   readonly rateMbps: MbPerSecond;
   readonly maxPsduBytes: Bytes;
-  sensitivity: Dbm | AirtallyError | undefined;
-  readonly txtimeByPsdu: Map<number, Microseconds>;
+  /** NaN until looked up, and when the standard gives none (then `sensitivityRefusal` says why). */
+  sensitivityDbm: Dbm;
+  sensitivityRefusal: AirtallyError | null;
+  /**
+   * TXTIMEs already computed, direct-mapped by PSDU length (txtimeSlot), the
+   * key beside the value, NaN for an empty slot (NaN equals no argument, so
+   * an empty slot never answers). A link shares the empty tables until its
+   * first TXTIME, then owns 4 KB: a fixed bound however many lengths a sheet
+   * asks for.
+   */
+  txtimeKeys: Float64Array;
+  txtimeValues: Float64Array;
 }
 
 const FACTS_LIMIT = 2048;
-/** TXTIMEs remembered per link (distinct PSDU lengths); the map starts over when full. */
-const TXTIMES_PER_LINK = 1024;
+const TXTIME_SLOT_BITS = 8;
+const TXTIME_SLOTS = 1 << TXTIME_SLOT_BITS;
+
+/**
+ * Slot of a PSDU length: Fibonacci hashing (Knuth, TAOCP vol. 3, 6.4,
+ * multiplicative hashing by 2^32/φ), the top bits of length × 0x9E3779B1.
+ * The low bits alone would put lengths in arithmetic progression — a column
+ * of sizes in steps of 256 octets — all in one slot.
+ */
+function txtimeSlot(psduBytes: number): number {
+  return Math.imul(psduBytes, 0x9e3779b1) >>> (32 - TXTIME_SLOT_BITS);
+}
 const factsCache = new Map<string, LinkFacts>();
+/** The tables of a link with no TXTIME yet (never written). Every field keeps one type from creation on, so the JIT sees one object shape. */
+const NO_TXTIME_KEYS = new Float64Array(TXTIME_SLOTS).fill(NaN);
+const NO_TXTIME_VALUES = new Float64Array(TXTIME_SLOTS);
+
+/*
+ * The hit paths below are a lookup and a field load; everything else (parsing,
+ * the family's equations, argument refusals) sits in separate functions so the
+ * hit paths stay small enough for the JIT to inline into the caller.
+ */
 
 function factsOf(link: unknown): LinkFacts {
+  if (typeof link === "string") {
+    const hit = factsCache.get(link);
+    if (hit !== undefined) return hit;
+  }
+  return factsOnMiss(link);
+}
+
+function factsOnMiss(link: unknown): LinkFacts {
   const key = typeof link === "string" ? link : typeof link === "object" && link !== null && "text" in link ? (link as Link).text : undefined;
   if (key !== undefined) {
     const hit = factsCache.get(key);
@@ -53,8 +90,10 @@ function factsOf(link: unknown): LinkFacts {
     module,
     rateMbps: module.rateMbps(l),
     maxPsduBytes: module.maxPsduBytes(l),
-    sensitivity: undefined,
-    txtimeByPsdu: new Map(),
+    sensitivityDbm: NaN,
+    sensitivityRefusal: null,
+    txtimeKeys: NO_TXTIME_KEYS,
+    txtimeValues: NO_TXTIME_VALUES,
   };
   if (factsCache.size >= FACTS_LIMIT) factsCache.delete(factsCache.keys().next().value as string);
   factsCache.set(key ?? l.text, facts);
@@ -89,13 +128,22 @@ export function txtime(link: unknown, psduBytes: unknown): TxTime {
 export function txtimeUs(link: unknown, psduBytes: unknown): Microseconds {
   const f = factsOf(link);
   if (typeof psduBytes === "number") {
-    const hit = f.txtimeByPsdu.get(psduBytes);
-    if (hit !== undefined) return hit;
+    const slot = txtimeSlot(psduBytes);
+    if (f.txtimeKeys[slot] === psduBytes) return f.txtimeValues[slot];
   }
+  return txtimeOnMiss(f, psduBytes);
+}
+
+function txtimeOnMiss(f: LinkFacts, psduBytes: unknown): Microseconds {
   const n = checkedPsdu(f, psduBytes);
   const total = f.module.txtime(f.link, n).totalUs;
-  if (f.txtimeByPsdu.size >= TXTIMES_PER_LINK) f.txtimeByPsdu.clear();
-  f.txtimeByPsdu.set(n, total);
+  if (f.txtimeKeys === NO_TXTIME_KEYS) {
+    f.txtimeKeys = new Float64Array(TXTIME_SLOTS).fill(NaN);
+    f.txtimeValues = new Float64Array(TXTIME_SLOTS);
+  }
+  const slot = txtimeSlot(n);
+  f.txtimeKeys[slot] = n;
+  f.txtimeValues[slot] = total;
   return total;
 }
 
@@ -123,17 +171,23 @@ export function psduFit(link: unknown, durationUs: unknown): Bytes {
 /** Minimum input sensitivity, dBm (#N/A where the standard gives none, e.g. HT MCS 33–76). */
 export function sensitivityDbm(link: unknown): Dbm {
   const f = factsOf(link);
-  if (typeof f.sensitivity === "number") return f.sensitivity;
-  if (f.sensitivity === undefined) {
+  const known = f.sensitivityDbm;
+  if (!Number.isNaN(known)) return known;
+  return sensitivityOnMiss(f);
+}
+
+/** The family's table, looked up once per link; a refusal is remembered and thrown again. */
+function sensitivityOnMiss(f: LinkFacts): Dbm {
+  if (f.sensitivityRefusal === null) {
     try {
-      f.sensitivity = f.module.sensitivityDbm(f.link);
-      return f.sensitivity;
+      f.sensitivityDbm = f.module.sensitivityDbm(f.link);
+      return f.sensitivityDbm;
     } catch (e) {
       if (!(e instanceof AirtallyError)) throw e;
-      f.sensitivity = e;
+      f.sensitivityRefusal = e;
     }
   }
-  throw f.sensitivity;
+  throw f.sensitivityRefusal;
 }
 
 /** Non-HT reference rate used to choose the control response rate, Mb/s. */
