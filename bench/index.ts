@@ -3,11 +3,13 @@
  * run by jest; numbers depend on the machine, so every speed is printed as a
  * ratio against a baseline measured in the same process, in the same run.
  *
- *   1. Per function: calls/s in the core (src/core bundled as a library,
- *      bench/coreLibrary.ts) and through the built
- *      bundle (dist/functions.js in a bare vm, as a host calls it), each
- *      against an inline-arithmetic baseline of the same equation. Target for
- *      closed-form functions: ≥ 0.5× the baseline (PASS/FAIL printed).
+ *   1. Per function (bench/perFunction.ts): calls/s of every catalog
+ *      function in the core (src/core bundled as a library,
+ *      bench/coreLibrary.ts) and through the built bundle (dist/functions.js
+ *      compiled in this context, as a host runs it), against an
+ *      inline-arithmetic baseline of the same equation. Target for closed
+ *      forms: ≥ 0.5× the baseline (PASS/FAIL printed). The measuring loop
+ *      and why it is built so: bench/harness.ts.
  *   2. Link text parsing: repeated text (cache hit) vs unique text.
  *   3. Cold start: load + register dist/functions.js in a fresh process
  *      (target ≤ 30 ms) and its gzip size (target ≤ 40 KB).
@@ -17,7 +19,9 @@
  *      native formulas only (target: Airtally ≥ 3× faster).
  *
  * Needs a fresh `npm run build`. BENCH_MS sets the time per measurement
- * batch (default 150 ms); BENCH_ROWS the workbook rows (default 10 000).
+ * batch (default 150 ms); BENCH_ROUNDS the interleaved rounds of targeted
+ * rows (default 5); BENCH_ONLY a comma list of section-1 rows; BENCH_ROWS the
+ * workbook rows (default 10 000).
  */
 import { execFileSync } from "child_process";
 import * as fs from "fs";
@@ -25,89 +29,30 @@ import * as path from "path";
 import * as zlib from "zlib";
 import { loadCoreLibrary } from "./coreLibrary";
 import * as vm from "vm";
-import { loadBundle, SpreadsheetError } from "../test/bundle/loadBundle";
+import { SpreadsheetError } from "../test/bundle/loadBundle";
+import { BATCH_MS, callsPerSecond as rate, fmtRate, measured } from "./harness";
+import { cases, measure, print, type Fn } from "./perFunction";
 
-// The core as a library (bench/coreLibrary.ts); bound once so the namespace lookups are not timed.
+// The core as a library (bench/coreLibrary.ts); functions are bound once so the namespace lookups are not timed.
 const core = loadCoreLibrary();
-const { rf, contention, mac } = core;
-const { rateMbps, txtimeUs, psduFit, sensitivityDbm, parseLink } = core;
-const { fsplDb, noiseFloorDbm } = rf;
-const { saturationGoodputMbps } = contention;
-const { goodputMbps } = mac;
+const { saturationGoodputMbps } = core.contention;
 
-const BATCH_MS = Number(process.env.BENCH_MS ?? 150);
 const ROWS = Number(process.env.BENCH_ROWS ?? 10_000);
 const DIST = path.resolve(__dirname, "../dist");
-
-/** Keeps results alive so the JIT cannot drop the work. */
-let sink = 0;
-function keep(v: unknown): void {
-  sink += typeof v === "number" ? v : typeof v === "string" ? v.length : 1;
-}
-
-/**
- * Calls per second of `step(i)`: warm up, then three batches of BATCH_MS
- * each; the best batch counts (the least disturbed by other processes).
- */
-function rate(step: (i: number) => unknown): number {
-  for (let i = 0; i < 20000; i++) keep(step(i));
-  let best = 0;
-  for (let batch = 0; batch < 3; batch++) {
-    let n = 0;
-    const t0 = performance.now();
-    let t = t0;
-    while (t - t0 < BATCH_MS) {
-      for (let k = 0; k < 1000; k++, n++) keep(step(n));
-      t = performance.now();
-    }
-    best = Math.max(best, (n / (t - t0)) * 1000);
-  }
-  return best;
-}
-
-function fmtRate(r: number): string {
-  return r >= 1e6 ? `${(r / 1e6).toFixed(2)} M/s` : `${(r / 1e3).toFixed(1)} k/s`;
-}
-function pad(s: string, n: number): string {
-  return s.length >= n ? s : s + " ".repeat(n - s.length);
-}
-function lpad(s: string, n: number): string {
-  return s.length >= n ? s : " ".repeat(n - s.length) + s;
-}
-
-// ---------------------------------------------------------------------------
-// Inputs. OFDM (IEEE 802.11-2020 Table 17-4, 20 MHz): N_DBPS = rate × 4 µs;
-// VHT/HE baselines use the same N_SD × N_BPSCS × R × N_SS ÷ T_SYM as the
-// standard's MCS tables (Table 21-5 / 802.11ax-2021 Table 27-55 onward).
-// ---------------------------------------------------------------------------
-
+/** IEEE 802.11-2020 Table 17-4: OFDM rates, Mb/s (the workbook's links). */
 const OFDM_RATES = [6, 9, 12, 18, 24, 36, 48, 54];
-const OFDM_LINKS = OFDM_RATES.map((r) => `OFDM ${r}Mbps 5GHz`);
-/** The data rate inputs of the inline baseline: N_SD, N_BPSCS, R, N_SS, T_SYM (µs). */
-const RATE_CASES: { link: string; nsd: number; nbpscs: number; r: number; nss: number; tsym: number }[] = [
-  { link: "OFDM 54Mbps 5GHz", nsd: 48, nbpscs: 6, r: 3 / 4, nss: 1, tsym: 4 }, // Table 17-4
-  { link: "OFDM 6Mbps 5GHz", nsd: 48, nbpscs: 1, r: 1 / 2, nss: 1, tsym: 4 },
-  { link: "VHT MCS9 2SS 80MHz GI0.4 5GHz", nsd: 234, nbpscs: 8, r: 5 / 6, nss: 2, tsym: 3.6 }, // Table 21-5 (from memory: N_SD 234 at 80 MHz)
-  { link: "VHT MCS7 1SS 40MHz GI0.8 5GHz", nsd: 108, nbpscs: 6, r: 5 / 6, nss: 1, tsym: 4 },
-  { link: "HE MCS11 2SS 80MHz GI0.8 5GHz", nsd: 980, nbpscs: 10, r: 5 / 6, nss: 2, tsym: 13.6 }, // 802.11ax: 980 data tones at 80 MHz (from memory)
-  { link: "HE MCS7 1SS 20MHz GI0.8 5GHz", nsd: 234, nbpscs: 6, r: 5 / 6, nss: 1, tsym: 13.6 },
-  { link: "HT MCS7 1SS 20MHz GI0.8 5GHz", nsd: 52, nbpscs: 6, r: 5 / 6, nss: 1, tsym: 4 },
-  { link: "HT MCS15 2SS 40MHz GI0.4 5GHz", nsd: 108, nbpscs: 6, r: 5 / 6, nss: 2, tsym: 3.6 },
-];
-const PSDUS = Array.from({ length: 256 }, (_, i) => 40 + ((i * 97) % 2264));
 
 /**
  * The bundle compiled in this process's own context with a CustomFunctions
  * shim passed in: the code a host runs, with the host's native globals.
  * (test/bundle/loadBundle's separate vm context is right for isolation tests
  * but routes every global lookup — Math, Map, Number — through Node's
- * contextified-global interceptors, which a real host does not have; section 1
- * prints that figure too, as "vm".)
+ * contextified-global interceptors, which a real host does not have.)
  */
-function loadBundleHere(): Map<string, (...args: unknown[]) => unknown> {
-  const functions = new Map<string, (...args: unknown[]) => unknown>();
+function loadBundleHere(): Map<string, Fn> {
+  const functions = new Map<string, Fn>();
   const shim = {
-    associate: (id: string, fn: (...args: unknown[]) => unknown) => functions.set(id, fn),
+    associate: (id: string, fn: Fn) => functions.set(id, fn),
     Error: SpreadsheetError,
     ErrorCode: { invalidValue: "#VALUE!", notAvailable: "#N/A" },
   };
@@ -117,167 +62,12 @@ function loadBundleHere(): Map<string, (...args: unknown[]) => unknown> {
   return functions;
 }
 
-interface Row {
-  name: string;
-  core: number;
-  bundle: number;
-  /** The bundle in a separate vm context (as the tests load it). */
-  vm?: number;
-  baseline: number;
-  closedForm: boolean;
-  note?: string;
-  /** Text-keyed functions: calls/s of one Map lookup of the same link text — the least any function of link text can cost. */
-  textFloor?: number;
-}
-
-/** Calls/s of a bare Map.get over the given texts: the floor under every function whose input is link text. */
-function textLookupRate(texts: readonly string[]): number {
-  const table = new Map(texts.map((t, i) => [t, i] as const));
-  const mask = texts.length - 1;
-  return rate((i) => table.get(texts[i & mask])!);
-}
-
-function perFunction(): Row[] {
-  const here = loadBundleHere();
-  const b = { functions: here };
-  const inVm = loadBundle();
-  const fn = (id: string) => {
-    const f = b.functions.get(id);
-    if (!f) throw new Error(`${id} not registered`);
-    return f;
-  };
-  const rows: Row[] = [];
-  const m = RATE_CASES.length - 1; // power of two minus one for cheap rotation
-
-  // RATE: N_SD × N_BPSCS × R × N_SS ÷ T_SYM (the shared rate formula).
-  {
-    const cases = RATE_CASES;
-    const baseline = rate((i) => {
-      const c = cases[i & m];
-      return (c.nsd * c.nbpscs * c.r * c.nss) / c.tsym;
-    });
-    const rateFn = fn("RATE");
-    rows.push({
-      name: "RATE",
-      baseline,
-      core: rate((i) => rateMbps(cases[i & m].link)),
-      bundle: rate((i) => rateFn(cases[i & m].link)),
-      vm: rate((i) => inVm.functions.get("RATE")!(cases[i & m].link)),
-      closedForm: true,
-      textFloor: textLookupRate(cases.map((c) => c.link)),
-    });
-  }
-
-  // TXTIME (OFDM): 20 µs preamble+SIGNAL + 4 µs × ceil((16 + 8·L + 6) ÷ N_DBPS), IEEE 802.11-2020 eq. (17-29).
-  {
-    const baseline = rate((i) => {
-      const ndbps = OFDM_RATES[i & 7] * 4;
-      return 20 + 4 * Math.ceil((16 + 8 * PSDUS[i & 255] + 6) / ndbps);
-    });
-    const f = fn("TXTIME");
-    rows.push({
-      name: "TXTIME",
-      baseline,
-      core: rate((i) => txtimeUs(OFDM_LINKS[i & 7], PSDUS[i & 255])),
-      bundle: rate((i) => f(OFDM_LINKS[i & 7], PSDUS[i & 255])),
-      closedForm: true,
-      textFloor: textLookupRate(OFDM_LINKS),
-    });
-  }
-
-  // PSDUFIT (OFDM): the closed-form inverse floor((floor((d − 20) ÷ 4) × N_DBPS − 22) ÷ 8); the function searches (any PHY), so no target.
-  {
-    const durations = PSDUS.map((p) => 30 + p / 2);
-    const baseline = rate((i) => {
-      const ndbps = OFDM_RATES[i & 7] * 4;
-      return Math.max(0, Math.floor((Math.floor((durations[i & 255] - 20) / 4) * ndbps - 22) / 8));
-    });
-    const f = fn("PSDUFIT");
-    rows.push({
-      name: "PSDUFIT",
-      baseline,
-      core: rate((i) => psduFit(OFDM_LINKS[i & 7], durations[i & 255])),
-      bundle: rate((i) => f(OFDM_LINKS[i & 7], durations[i & 255])),
-      closedForm: false,
-      note: "binary search over TXTIME",
-    });
-  }
-
-  // SENSITIVITY (OFDM): a table lookup, Table 17-18 (−82 dBm at 6 Mb/s … −65 dBm at 54 Mb/s).
-  {
-    const table = [-82, -81, -79, -77, -74, -70, -66, -65];
-    const baseline = rate((i) => table[i & 7]);
-    const f = fn("SENSITIVITY");
-    rows.push({
-      name: "SENSITIVITY",
-      baseline,
-      core: rate((i) => sensitivityDbm(OFDM_LINKS[i & 7])),
-      bundle: rate((i) => f(OFDM_LINKS[i & 7])),
-      closedForm: true,
-      textFloor: textLookupRate(OFDM_LINKS),
-    });
-  }
-
-  // FSPL: Friis, 20·log10(4π·d·f ÷ c).
-  if (b.functions.has("FSPL")) {
-    const d = Array.from({ length: 256 }, (_, i) => 1 + i * 0.37);
-    const f = [2412, 2437, 2462, 5180, 5500, 5745, 5955, 6415];
-    const c = 299_792_458;
-    const baseline = rate((i) => 20 * Math.log10((4 * Math.PI * d[i & 255] * f[i & 7] * 1e6) / c));
-    const g = fn("FSPL");
-    rows.push({ name: "FSPL", baseline, core: rate((i) => fsplDb(d[i & 255], f[i & 7])), bundle: rate((i) => g(d[i & 255], f[i & 7])), closedForm: true });
-  }
-
-  // NOISEFLOOR: kT (−174 dBm/Hz at 290 K) + 10·log10(B) + NF.
-  if (b.functions.has("NOISEFLOOR")) {
-    const w = [20, 40, 80, 160, 320, 20, 40, 80];
-    const baseline = rate((i) => -174 + 10 * Math.log10(w[i & 7] * 1e6) + 7);
-    const g = fn("NOISEFLOOR");
-    rows.push({ name: "NOISEFLOOR", baseline, core: rate((i) => noiseFloorDbm(w[i & 7], 7)), bundle: rate((i) => g(w[i & 7], 7)), closedForm: true });
-  }
-
-  // GOODPUT (OFDM, one MPDU, BE): 8·packet ÷ (AIFS + CWmin/2·slot + PPDU + SIFS + Ack), the channel access of DESIGN.md §2.
-  if (b.functions.has("GOODPUT")) {
-    const ackRate = (r: number) => (r >= 24 ? 24 : r >= 12 ? 12 : 6); // basic rates 6, 12, 24 (Table 17-4 mandatory rates)
-    const mpdu = 1554; // MPDU(1500): QoS header 26 + LLC/SNAP 8 + CCMP 16 + FCS 4 (IEEE 802.11-2020 9.3.2.1, 12.5.3)
-    const baseline = rate((i) => {
-      const r = OFDM_RATES[i & 7];
-      const ppdu = 20 + 4 * Math.ceil((16 + 8 * mpdu + 6) / (4 * r));
-      const ack = 20 + 4 * Math.ceil((16 + 8 * 14 + 6) / (4 * ackRate(r)));
-      return (8 * 1500) / (16 + 3 * 9 + 7.5 * 9 + ppdu + 16 + ack);
-    });
-    const g = fn("GOODPUT");
-    rows.push({
-      name: "GOODPUT",
-      baseline,
-      core: rate((i) => goodputMbps(OFDM_LINKS[i & 7], 1500)),
-      bundle: rate((i) => g(OFDM_LINKS[i & 7], 1500)),
-      closedForm: false,
-      note: "MAC options parse + access terms",
-    });
-  }
-  return rows;
-}
-
-function printPerFunction(rows: Row[]): boolean {
-  console.log("\n1. Per function — calls/s; ratio = calls/s ÷ inline-arithmetic baseline of the same equation (same run)");
-  console.log(`   ${pad("function", 12)}${lpad("baseline", 12)}${lpad("core", 12)}${lpad("×", 7)}${lpad("bundle", 12)}${lpad("×", 7)}  target ≥ 0.5× (closed form)`);
-  let ok = true;
-  for (const r of rows) {
-    const rc = r.core / r.baseline;
-    const rb = r.bundle / r.baseline;
-    const verdict = r.closedForm ? (rc >= 0.5 && rb >= 0.5 ? "PASS" : "FAIL") : `info (${r.note})`;
-    if (r.closedForm && verdict === "FAIL") ok = false;
-    const floor = r.textFloor === undefined ? "" : `  (one Map lookup of the link text alone: ${(r.textFloor / r.baseline).toFixed(2)}×)`;
-    console.log(
-      `   ${pad(r.name, 12)}${lpad(fmtRate(r.baseline), 12)}${lpad(fmtRate(r.core), 12)}${lpad(rc.toFixed(2), 7)}${lpad(fmtRate(r.bundle), 12)}${lpad(rb.toFixed(2), 7)}  ${verdict}${floor}`,
-    );
-  }
-  const withVm = rows.find((r) => r.vm !== undefined);
-  if (withVm) {
-    console.log(`   (bundle = dist/functions.js compiled in this context, host-like globals; the same bundle in a separate vm context: ${withVm.name} ${fmtRate(withVm.vm!)}, ${(withVm.vm! / withVm.baseline).toFixed(2)}×)`);
-  }
-  return ok;
+function perFunction(): boolean {
+  const registered = loadBundleHere();
+  const all = cases(core);
+  const only = process.env.BENCH_ONLY?.split(",");
+  const chosen = only ? all.filter((c) => only.includes(c.id)) : all;
+  return print(chosen.map((c) => measure(c, registered)), chosen);
 }
 
 // ---------------------------------------------------------------------------
@@ -302,6 +92,7 @@ function linkCache(): void {
     }
   }
   const repeated = "HE MCS9 2SS 80MHz GI0.8 5GHz";
+  const { parseLink } = core;
   const hit = rate(() => parseLink(repeated));
   const miss = rate((i) => parseLink(unique[i & 4095]));
   console.log("\n2. Link text parsing (core.parseLink)");
@@ -459,13 +250,13 @@ function main(): void {
   }
   const built = fs.statSync(path.join(DIST, "functions.js")).mtime;
   console.log(`Airtally benchmark — node ${process.version}, ${BATCH_MS} ms batches, dist built ${built.toISOString()}`);
-  const results = [printPerFunction(perFunction())];
+  const results = [perFunction()];
   linkCache();
   results.push(coldStart());
   results.push(saturate());
   const wb = workbook();
   if (wb !== null) results.push(wb);
-  console.log(`\n${results.every(Boolean) ? "all targets met" : "some targets not met (FAIL above)"}${wb === null ? "; workbook benchmark not run" : ""}  (sink ${sink > 0 ? "ok" : "0"})`);
+  console.log(`\n${results.every(Boolean) ? "all targets met" : "some targets not met (FAIL above)"}${wb === null ? "; workbook benchmark not run" : ""}  (${measured()} measurements)`);
 }
 
 main();
