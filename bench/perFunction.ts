@@ -109,9 +109,25 @@ const ceilClean = (x: number) => Math.ceil(Math.round(x * 1e9) / 1e9);
 
 const TEXT_FLOOR_NOTE = "one Map lookup of the same link text";
 
-/** A row without a target: calls/s only. */
-function info(id: string, equation: string, core: Step, bundle: (f: Fn) => Step): Case {
-  return { id, kind: "info", equation, core, bundle, inputs: 0 };
+/** A row without a target: calls/s, and the ratio to an inline baseline where one is meaningful (checked like the others). */
+function info(id: string, equation: string, core: Step, bundle: (f: Fn) => Step, baseline?: (i: number) => number): Case {
+  return { id, kind: "info", equation, core, bundle, baseline, inputs: baseline ? 2048 : 0 };
+}
+
+/** OFDM PPDU, µs: IEEE 802.11-2020 eq. (17-29) at 20 MHz, N_DBPS = rate × 4 µs (Table 17-4). */
+function ofdmPpduUs(octets: number, rateMbps: number): number {
+  return 20 + 4 * Math.ceil((16 + 8 * octets + 6) / (4 * rateMbps));
+}
+/** Control response rate: the highest basic rate ≤ the data rate (IEEE 802.11-2020 10.6.6.5.2), basic set 6, 12, 24 Mb/s (Table 17-4's mandatory rates). */
+function ackRateMbps(rateMbps: number): number {
+  return rateMbps >= 24 ? 24 : rateMbps >= 12 ? 12 : 6;
+}
+/**
+ * One OFDM exchange for BE, µs (DESIGN.md §2): AIFS[BE] = SIFS 16 + 3 × slot 9, mean backoff CWmin/2 × slot = 7.5 × 9
+ * (IEEE 802.11-2020 Table 9-155, Table 17-21), the data PPDU (MPDU = packet + 54 octets with CCMP-128), SIFS, a 14-octet Ack.
+ */
+function ofdmExchangeUs(packetBytes: number, rateMbps: number): number {
+  return 16 + 3 * 9 + 7.5 * 9 + ofdmPpduUs(packetBytes + QOS_MPDU_OVERHEAD, rateMbps) + 16 + ofdmPpduUs(14, ackRateMbps(rateMbps));
 }
 
 export function cases(core: Core): Case[] {
@@ -260,22 +276,34 @@ export function cases(core: Core): Case[] {
       inputs: 512,
     },
     // ----------------------------------------------------------- info
-    info("RETX sel.", "selective: Σ_k (1 − (1 − p^k)^N), a series", (i) => expectedTransmissions(COUNTS[i & 63], LOSSES[i & 7]), (f) => (i) => f(COUNTS[i & 63], LOSSES[i & 7])),
+    info("RETX sel.", "selective: Σ_k (1 − (1 − p^k)^N), a series", (i) => expectedTransmissions(COUNTS[i & 63], LOSSES[i & 7]), (f) => (i) => f(COUNTS[i & 63], LOSSES[i & 7]), (i) => {
+      const n = COUNTS[i & 63];
+      const p = LOSSES[i & 7];
+      let sum = 0;
+      for (let k = 0, pk = 1; ; k++, pk *= p) {
+        const term = 1 - Math.pow(1 - pk, n);
+        sum += term;
+        if (term < 1e-15) return sum;
+      }
+    }),
     info("LINK", "builds and validates link text", (i) => buildLink("HE", i % 12, 1 + (i & 1), 20 << (i & 3), 0.8, 5, undefined).text, (f) => (i) => f("HE", i % 12, 1 + (i & 1), 20 << (i & 3), 0.8, 5)),
-    info("PSDUFIT", "binary search over TXTIME (any PHY)", (i) => psduFit(OFDM_LINKS[i & 7], 30 + PSDUS[i & 255] / 2), (f) => (i) => f(OFDM_LINKS[i & 7], 30 + PSDUS[i & 255] / 2)),
+    info("PSDUFIT", "binary search over TXTIME (any PHY); baseline: OFDM's closed-form inverse of eq. (17-29)", (i) => psduFit(OFDM_LINKS[i & 7], 30 + PSDUS[i & 255] / 2), (f) => (i) => f(OFDM_LINKS[i & 7], 30 + PSDUS[i & 255] / 2), (i) => {
+      const symbols = Math.floor((30 + PSDUS[i & 255] / 2 - 20) / 4);
+      return Math.min(4095, Math.floor((symbols * OFDM_RATES[i & 7] * 4 - 22) / 8)); // 4095: aPSDUMaxLength (Table 17-21, from memory)
+    }),
     info("TXTIMEPARTS", "TXTIME terms as a spill", (i) => txtimeTable(OFDM_LINKS[i & 7], PSDUS[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], PSDUS[i & 255])),
     info("AGGCOUNT", "MPDUs under four aggregation limits", (i) => aggCount(HE_LINK, PACKETS[i & 255], ACCESS[i & 3]), (f) => (i) => f(HE_LINK, PACKETS[i & 255], ACCESS[i & 3])),
     info("AIFS", "SIFS + AIFSN × slot (Table 9-155)", (i) => aifsUs(ACCESS[i & 3]), (f) => (i) => f(ACCESS[i & 3])),
     info("ACCESS", "one channel access, all terms", (i) => channelAccess(HE_LINK, 1500, COUNTS[i & 63]).totalUs, (f) => (i) => f(HE_LINK, 1500, COUNTS[i & 63])),
-    info("GOODPUT", "channel access + selective retransmission", (i) => goodputMbps(OFDM_LINKS[i & 7], PACKETS[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], PACKETS[i & 255])),
-    info("EFFICIENCY", "GOODPUT ÷ RATE", (i) => efficiency(OFDM_LINKS[i & 7], PACKETS[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], PACKETS[i & 255])),
+    info("GOODPUT", "MAC options, access terms, retransmission; baseline: 8·packet ÷ one OFDM exchange", (i) => goodputMbps(OFDM_LINKS[i & 7], PACKETS[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], PACKETS[i & 255]), (i) => (8 * PACKETS[i & 255]) / ofdmExchangeUs(PACKETS[i & 255], OFDM_RATES[i & 7])),
+    info("EFFICIENCY", "GOODPUT ÷ RATE", (i) => efficiency(OFDM_LINKS[i & 7], PACKETS[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], PACKETS[i & 255]), (i) => (8 * PACKETS[i & 255]) / ofdmExchangeUs(PACKETS[i & 255], OFDM_RATES[i & 7]) / OFDM_RATES[i & 7]),
     info("COLLIDE", "Bianchi fixed point (memoised)", (i) => collisionProbability(COUNTS[i & 63]), (f) => (i) => f(COUNTS[i & 63])),
     info("SATURATE", "saturation goodput (memoised; cold calls in section 4)", (i) => saturationGoodputMbps(HE_LINK, COUNTS[i & 63], 1500), (f) => (i) => f(HE_LINK, COUNTS[i & 63], 1500)),
     info("CONTENTION", "contention share of airtime (memoised)", (i) => contentionShare(HE_LINK, COUNTS[i & 63], 1500), (f) => (i) => f(HE_LINK, COUNTS[i & 63], 1500)),
     info("EDCAMIX", "multi-class EDCA fixed point, spilled", () => edcaMixTable(HE_LINK, edcaAccess, edcaCounts, 1500), (f) => () => f(HE_LINK, edcaAccess, edcaCounts, 1500)),
     info("TOPLINK", "best MCS at a signal level", (i) => topLink("HE", RSSI_DBM[i & 255], 2, 80), (f) => (i) => f("HE", RSSI_DBM[i & 255], 2, 80)),
     info("BEACONLOAD", "SSIDs × APs × beacon TXTIME ÷ interval", (i) => beaconLoad(1 + (i & 7), 3), (f) => (i) => f(1 + (i & 7), 3)),
-    info("CLIENTSHARE", "demand ÷ goodput", (i) => clientShare(OFDM_LINKS[i & 7], SHARES[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], SHARES[i & 255])),
+    info("CLIENTSHARE", "demand ÷ goodput; baseline: demand × one OFDM exchange ÷ 8·1500", (i) => clientShare(OFDM_LINKS[i & 7], SHARES[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], SHARES[i & 255]), (i) => (SHARES[i & 255] * ofdmExchangeUs(1500, OFDM_RATES[i & 7])) / (8 * 1500)),
     info("MIXSHARE", "Σ count × CLIENTSHARE over ranges", () => mixShare(mixLinks, mixCounts, mixDemands), (f) => () => f(mixLinks, mixCounts, mixDemands)),
     info("BREAKDOWN", "channel access terms as a spill", (i) => breakdownTable(HE_LINK, 1500, COUNTS[i & 63]), (f) => (i) => f(HE_LINK, 1500, COUNTS[i & 63])),
   ];
@@ -362,7 +390,9 @@ export function print(rows: Row[], all: Case[]): boolean {
     } else if (r.kind === "closed") {
       line(r.id, r.baseline, r, targetRatios(r), `${pass ? "PASS" : "FAIL"}${agree}`);
     } else {
-      line(r.id, undefined, r, undefined, `info: ${all.find((c) => c.id === r.id)!.equation}`);
+      const equation = all.find((c) => c.id === r.id)!.equation;
+      const x: [number, number] | undefined = r.ratios ? [r.ratios.coreToBaseline, r.ratios.bundleToBaseline] : undefined;
+      line(r.id, r.baseline, r, x, `info: ${equation}${agree}`);
     }
   }
   console.log("   Equations of the baselines:");
