@@ -87,8 +87,32 @@ interface LinkSpec {
   dcm?: boolean;
 }
 
+/** What each setting is called in messages: the user's words, never a field name. */
+const SETTING_NAMES: Readonly<Record<keyof LinkSpec, string>> = {
+  family: "the PHY family",
+  rateMbps: "the data rate (Mbps)",
+  preamble: "the preamble (short/long)",
+  mcs: "the MCS (MCS<n>)",
+  streams: "the spatial streams (<k>SS)",
+  widthMHz: "the channel width (<w>MHz)",
+  giUs: "the guard interval (GI, SGI or LGI)",
+  bandGHz: "the band (<band>GHz)",
+  coding: "the coding (BCC/LDPC)",
+  stbc: "STBC",
+  format: "the HT format (MF/GF)",
+  ltf: "the LTF size (1xLTF/2xLTF/4xLTF)",
+  nominalPaddingUs: "the packet extension (PE0/PE8/PE16)",
+  ppdu: "the PPDU format (SU/ER)",
+  ruTones: "the resource unit (RU…)",
+  dcm: "DCM",
+};
+
+function repeated(token: string, key: keyof LinkSpec): never {
+  invalid(`link: "${token}" repeats ${SETTING_NAMES[key]}; give each setting once`);
+}
+
 function setOnce<K extends keyof LinkSpec>(spec: LinkSpec, key: K, value: LinkSpec[K], token: string): void {
-  if (spec[key] !== undefined) invalid(`link: "${token}" repeats ${String(key)} (each setting may appear once)`);
+  if (spec[key] !== undefined) repeated(token, key);
   spec[key] = value;
 }
 

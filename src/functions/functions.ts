@@ -452,11 +452,12 @@ export function fspl(distance_m: number, freq_mhz: number): number {
  * @param freq_mhz Frequency (MHz)
  * @param [distance_power] Distance power loss coefficient N, default 30
  * @param [floors] Floors between transmitter and receiver (count), default 0
- * @param [floor_loss_db] Loss per floor (dB), default 15
+ * @param [floor_loss_db] Loss per floor (dB); omitted: the office floor penetration factor L_f(n) of ITU-R P.1238-7 Table 3 for the band
  * @returns Path loss (dB)
  * @example =AIRTALLY.INDOORLOSS(20, 5500)
+ * @example =AIRTALLY.INDOORLOSS(20, 1900, 30, 3)
  * @example =AIRTALLY.INDOORLOSS(20, 2437, 28, 1, 15)
- * @remarks L = 20 log10 f − 28 + N log10 d + L_f(n), Recommendation ITU-R P.1238-7 (02/2012) §3.1, with L_f = floors × floor_loss_db.
+ * @remarks L = 20 log10 f − 28 + N log10 d + L_f(n), Recommendation ITU-R P.1238-7 (02/2012) §3.1. With floor_loss_db omitted, L_f(n) is Table 3's office factor for the band (from memory of the recommendation): 1.8–2 GHz 15 + 4(n − 1) dB, 2.4 GHz 14 dB (1 floor), 5.2 GHz 16 dB (1 floor), 5.8 GHz 22 / 28 dB (1 / 2 floors; also used for 5.35–5.725 GHz, the larger loss); more floors than the table gives, or a band it lacks (6 GHz), need floor_loss_db. Given, floor_loss_db counts once per floor.
  * @caution Planning estimate only; a site survey, local regulations and licensed practice decide.
  * @helpurl https://localhost:3000/help/indoorloss.html
  */
@@ -514,11 +515,12 @@ export function toplink(
  * @param freq_mhz Frequency (MHz)
  * @param [distance_power] Distance power loss coefficient N, default 30
  * @param [floors] Floors crossed (count), default 0
- * @param [floor_loss_db] Loss per floor (dB), default 15
+ * @param [floor_loss_db] Loss per floor (dB); omitted: the office floor penetration factor L_f(n) of ITU-R P.1238-7 Table 3 for the band
  * @param [rx_gain_dbi] Client antenna gain (dBi), default 0
  * @returns Distance (m)
  * @example =AIRTALLY.REACH(20, -67, 5500)
- * @remarks Solves the ITU-R P.1238-7 site-general model for d.
+ * @example =AIRTALLY.REACH(20, -67, 5200, 31, 1)
+ * @remarks Solves the ITU-R P.1238-7 site-general model for d, with the same floor rule as INDOORLOSS (Table 3's office L_f(n) when floor_loss_db is omitted, from memory; floors × floor_loss_db when given).
  * @caution The EIRP is the value you give; legal EIRP and channel use differ by country and RF exposure limits protect people. Planning estimate only; a site survey, local regulations and licensed practice decide.
  * @helpurl https://localhost:3000/help/reach.html
  */

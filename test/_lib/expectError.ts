@@ -4,7 +4,7 @@
  */
 import { AirtallyError } from "../../src/core/errors";
 
-function caughtFrom(fn: () => unknown): AirtallyError {
+function caughtFrom(fn: () => unknown, kind: "value" | "na" = "value"): AirtallyError {
   let caught: unknown;
   try {
     fn();
@@ -12,7 +12,7 @@ function caughtFrom(fn: () => unknown): AirtallyError {
     caught = e;
   }
   expect(caught).toBeInstanceOf(AirtallyError);
-  expect((caught as AirtallyError).kind).toBe("value");
+  expect((caught as AirtallyError).kind).toBe(kind);
   return caught as AirtallyError;
 }
 
@@ -28,4 +28,9 @@ export function expectValueErrorNaming(fn: () => unknown, argument: string): voi
   const message = caughtFrom(fn).message;
   // Compare the message itself when it does not name the argument, so the failure shows it.
   expect(message.startsWith(`${argument}:`) ? argument : message).toBe(argument);
+}
+
+/** A #N/A (valid inputs, no answer) whose message matches the pattern. */
+export function expectNaError(fn: () => unknown, message: RegExp): void {
+  expect(caughtFrom(fn, "na").message).toMatch(message);
 }

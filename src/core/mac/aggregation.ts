@@ -10,11 +10,12 @@
  *   fit in it. A TXOP limit of 0 allows one exchange of one PPDU
  *   (IEEE 802.11-2020 10.23.2.9, from memory), bounded by aPPDUMaxTime only.
  *   When even one MPDU overruns a nonzero limit the count is still 1: the
- *   standard's remedy (fragmentation) is not modelled.
+ *   standard's remedy (fragmentation) is not modelled. When one MPDU alone
+ *   overruns aPPDUMaxTime there is no count: #N/A with a message.
  * Families without A-MPDU (DSSS, HR-DSSS, OFDM, ERP-OFDM) and DCF access
  * (no QoS, no block ack agreement) give 1.
  */
-import { invalid } from "../errors";
+import { noAnswer } from "../errors";
 import type { Microseconds } from "../units";
 import { aPPDUMaxTime_us } from "./timing";
 import { ampduLength, AMPDU_DELIMITER_octets } from "./frames";
@@ -38,11 +39,15 @@ function largestWhere(lo: number, hi: number, ok: (n: number) => boolean): numbe
   return lo;
 }
 
-/** Refuse a single PPDU that already overruns aPPDUMaxTime (HT and later). */
+/**
+ * A single MPDU whose PPDU already overruns aPPDUMaxTime (HT and later): the
+ * arguments are valid but no A-MPDU of any length exists, so #N/A
+ * (DESIGN.md §4), not #VALUE!.
+ */
 function checkSinglePpdu(ctx: ExchangeContext): void {
   const us = ppduUsFor(ctx, 1);
   if (us > aPPDUMaxTime_us) {
-    invalid(
+    noAnswer(
       `packet_bytes: one ${ctx.mpduBytes}-octet MPDU lasts ${us} µs on ${ctx.link.text}, over aPPDUMaxTime (${aPPDUMaxTime_us} µs); ` +
         `use smaller packets, fewer MSDUs per A-MSDU (mac_options AMSDU=) or a faster MCS`,
     );

@@ -72,13 +72,25 @@ const STARTING_SEQUENCE_CONTROL_octets: Bytes = 2;
 export const BLOCK_ACK_REQ_octets: Bytes = RTS_octets + BA_CONTROL_octets + STARTING_SEQUENCE_CONTROL_octets;
 
 /**
+ * Bitmap sizes of the Compressed BlockAck, bits: 64 (8 octets, IEEE
+ * 802.11-2020 9.3.1.8.2); 802.11ax-2021 9.3.1.8.2 adds 128 and 256 (16 and
+ * 32 octets; its 32-bit bitmap is not used here, see below), 802.11be-2024
+ * adds 512 and 1024 (64 and 128 octets). The sizes are signalled by the
+ * Fragment Number subfield of the Starting Sequence Control field (from
+ * memory of both amendments' encoding tables).
+ */
+export const COMPRESSED_BLOCK_ACK_BITMAP_bits: readonly number[] = [64, 128, 256, 512, 1024];
+
+/**
  * Compressed BlockAck: FC, Duration, RA, TA, BA Control, SSC, bitmap, FCS
- * (9.3.1.8). Bitmap 64 bits → 32 octets; 256 bits (802.11ax-2021) → 56;
- * 1024 bits (802.11be-2024) → 152. The bitmap covers the block ack window,
- * so the smallest of these that holds the window is sent.
+ * (9.3.1.8): 24 octets + the bitmap, i.e. 32 (64-bit bitmap), 40 (128),
+ * 56 (256), 88 (512), 152 (1024). The smallest standard bitmap that holds
+ * the block ack window is sent (a window of 128 gets the 128-bit bitmap, 512
+ * the 512-bit one). Windows below 64 also get the 64-bit bitmap: HT and VHT
+ * have no other, and for HE it is the larger, never the shorter, response.
  */
 export function blockAckBytes(windowMpdus: number): Bytes {
-  const bitmapBits = [64, 256, 1024].find((b) => b >= windowMpdus) ?? 1024;
+  const bitmapBits = COMPRESSED_BLOCK_ACK_BITMAP_bits.find((b) => b >= windowMpdus) ?? 1024;
   return RTS_octets + BA_CONTROL_octets + STARTING_SEQUENCE_CONTROL_octets + bitmapBits / 8;
 }
 

@@ -16,7 +16,7 @@ import type { MacOptions } from "./options";
 import { ACK_octets } from "./frames";
 import { controlLinkText, mandatoryRates } from "./response";
 
-/** aSIFSTime at 2.4 GHz: DSSS/HR-DSSS (Clauses 15/16), ERP (Table 18-5), HT at 2.4 GHz (Table 19-25), HE at 2.4 GHz (802.11ax-2021 Table 27-?? , from memory). */
+/** aSIFSTime at 2.4 GHz: DSSS/HR-DSSS (Clauses 15/16), ERP (Table 18-5), HT at 2.4 GHz (Table 19-25), HE at 2.4 GHz (802.11ax-2021 27.4.4, HE PHY characteristics table; from memory). */
 export const aSIFSTime_2_4GHz_us: Microseconds = 10;
 /** aSIFSTime of OFDM-based PHYs at 5 and 6 GHz: OFDM 20 MHz (Table 17-21), HT (Table 19-25), VHT (Table 21-28), HE/EHT. */
 export const aSIFSTime_5GHz_us: Microseconds = 16;
@@ -27,13 +27,8 @@ export const aSlotTime_short_us: Microseconds = 9;
 /** The long slot of ERP and later PHYs at 2.4 GHz, used when DSSS stations share the BSS (Table 18-5). */
 export const aSlotTime_long_us: Microseconds = aSlotTime_DSSS_us;
 
-/**
- * aPPDUMaxTime, µs: 5.484 ms for VHT (Table 21-28) and HE (802.11ax-2021);
- * HT mixed-format PPDUs are held to the same by the L-SIG LENGTH field
- * (the HT table's 10 ms applies to greenfield; from memory). DESIGN.md §2
- * applies 5484 µs to every family with A-MPDU.
- */
-export const aPPDUMaxTime_us: Microseconds = 5484;
+/** aPPDUMaxTime, 5484 µs: a PHY characteristic, defined in phy/_lib.ts (the PHY also derives its largest PSDU from it). */
+export { aPPDUMaxTime_us } from "../phy/_lib";
 
 /**
  * aRxPHYStartDelay, µs. OFDM 20 MHz: 25 (Table 17-21). The others from

@@ -124,3 +124,12 @@ export const aSignalExtension_us: Microseconds = 6;
 export function signalExtensionUs(bandGHz: number): Microseconds {
   return bandGHz === 2.4 ? aSignalExtension_us : 0;
 }
+
+/**
+ * aPPDUMaxTime, µs: 5.484 ms for VHT (IEEE 802.11-2020 Table 21-28) and HE
+ * (802.11ax-2021 27.4.4; EHT keeps it, 802.11be-2024 36.4.4 — from memory);
+ * HT mixed-format PPDUs are held to the same by the L-SIG LENGTH field
+ * (the HT table's 10 ms applies to greenfield; from memory). DESIGN.md §2
+ * applies 5484 µs to every family with A-MPDU.
+ */
+export const aPPDUMaxTime_us: Microseconds = 5484;

@@ -20,7 +20,7 @@
 import type { Link } from "../link";
 import type { PhyFamily, TxTime } from "./types";
 import type { Bytes, Dbm, Microseconds } from "../units";
-import { preambleTerms, txtimeFromTerms, type PreambleField } from "./_lib";
+import { MCS_MODULATION, dataBitsPerSymbol, preambleTerms, txtimeFromTerms, type PreambleField } from "./_lib";
 import {
   HE_RUS,
   HE_MU_GI_LTF,
@@ -34,6 +34,9 @@ import {
   applyRules,
   commonRules,
   giLtfRule,
+  largestPsduInPpduMaxTime,
+  ltfSymbolUs,
+  symbolDurationUs,
   nonHtReferenceRate,
   numerology,
   numerologyRateMbps,
@@ -117,8 +120,26 @@ export function ehtSigSymbols(widthMHz: number, ofdma: boolean): number {
  */
 export const EHT_SENSITIVITY_20MHZ_DBM: readonly Dbm[] = [...HE_SENSITIVITY_20MHZ_DBM, -49, -46];
 
-/** aPSDUMaxLength for EHT: 15 523 200 octets (36.4.4 EHT PHY characteristics; from memory). */
-export const EHT_aPSDUMaxLength_bytes: Bytes = 15_523_200;
+/**
+ * aPSDUMaxLength for EHT, derived as HE's 6 500 631 octets is
+ * (largestPsduInPpduMaxTime in he.ts): N_DBPS,max = 313 600 (4×996 tones,
+ * EHT-MCS 13, 8 SS: 3920 × 12 × 5/6 × 8), T_SYM 13.6 µs, shortest EHT MU
+ * preamble L-STF 8 + L-LTF 8 + L-SIG 4 + RL-SIG 4 + U-SIG 8 + one EHT-SIG
+ * symbol 4 (a non-OFDMA user at a higher EHT-SIG MCS) + EHT-STF 4 + 8
+ * EHT-LTFs of 2x + 0.8 µs (7.2 µs each; the EHT MU PPDU has no 1x EHT-LTF)
+ * = 97.6 µs: N_SYM = floor(5386.4 ÷ 13.6) = 396, PSDU =
+ * floor((396 × 313 600 − 16) ÷ 8) = 15 523 198 octets. Our memory of
+ * 802.11be-2024 36.4.4 says 15 523 200 (= 396 × 313 600 ÷ 8, the SERVICE
+ * field not subtracted; HE's value without that subtraction would be
+ * 6 500 633, not 6 500 631): we keep the derived, smaller value, which never
+ * overstates what one PPDU carries.
+ */
+export const EHT_SHORTEST_PREAMBLE_us: Microseconds = 8 + 8 + 4 + 4 + T_U_SIG_us + T_EHT_SIG_us + T_EHT_STF_NT_us + 8 * ltfSymbolUs(2, 0.8);
+export const EHT_aPSDUMaxLength_bytes: Bytes = largestPsduInPpduMaxTime(
+  dataBitsPerSymbol(EHT_RUS[3984].nSd, MCS_MODULATION[13].nBpscs, MCS_MODULATION[13].codeRate, HE_MAX_STREAMS),
+  EHT_SHORTEST_PREAMBLE_us,
+  symbolDurationUs(0.8),
+);
 
 const EHT_RULES: readonly Rule[] = [
   commonRules.mcs(EHT_MAX_MCS, " (EHT-MCS 14, EHT DUP, and 15, BPSK-DCM, are not modelled)"),

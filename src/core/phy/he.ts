@@ -28,8 +28,8 @@ import {
   L_SIG,
   L_STF,
   MCS_MODULATION,
+  aPPDUMaxTime_us,
   dataBitsPerSymbol,
-  dataRateMbps,
   durationTerm,
   factorTerm,
   nonHtReferenceRateFor,
@@ -303,10 +303,12 @@ export function numerology(link: Link, rus: Readonly<Record<number, RuNumerology
     nSts: mStbc * nSs,
     tSymUs: symbolDurationUs(link.giUs!),
     enc: {
-      // N_CBPS·R is not always whole (996- and 2×996-tone RUs at MCS 9 and 11, e.g.
-      // 8166.7 bits; DCM at MCS0 on 242/106 tones): the padding equations count
-      // whole bits, so we take floor(N_CBPS·R) as the rate tables' N_DBPS column
-      // does (8166 — from memory). The data rate keeps the exact product (600.5 Mb/s).
+      // N_CBPS·R is not always whole (996- and 2×996-tone RUs at MCS 9 and 11,
+      // e.g. 980 × 10 × 5/6 = 8166.7 bits; DCM at MCS0 on 242/106 tones): the
+      // HE/EHT MCS tables list the integer N_DBPS = floor(N_CBPS·R) (802.11ax-2021
+      // 27.5, e.g. 8166 for HE-MCS 11 on 996 tones, 1 SS; 802.11be-2024 36.5) and
+      // their data rate column is that N_DBPS ÷ T_SYM (600.4 Mb/s, not 600.5), so
+      // RATE (numerologyRateMbps) and TXTIME both use this one integer.
       nDbps: Math.floor(dataBitsPerSymbol(nSd, mod.nBpscs, mod.codeRate, nSs)),
       nCbps: nSd * mod.nBpscs * nSs,
       nDbpsShort: dataBitsPerSymbol(nSdShort, mod.nBpscs, mod.codeRate, nSs),
@@ -347,9 +349,13 @@ export function trainingDataAndPeTerms(link: Link, n: Numerology, psduBytes: Byt
   return terms;
 }
 
-/** The MCS's rate row: N_SD × N_BPSCS × R × N_SS ÷ T_SYM. */
+/**
+ * The MCS table's data rate: the integer N_DBPS ÷ T_SYM (802.11ax-2021 27.5;
+ * 802.11be-2024 36.5), the same N_DBPS the TXTIME equations use, so RATE and
+ * TXTIME agree on every RU, MCS, GI and stream count.
+ */
 export function numerologyRateMbps(n: Numerology): MbPerSecond {
-  return dataRateMbps(n.nSd, n.mod.nBpscs, n.mod.codeRate, n.nSs, n.tSymUs);
+  return n.enc.nDbps / n.tSymUs;
 }
 
 // ---------------------------------------------------------------------------
@@ -412,9 +418,25 @@ export function giLtfPair(link: Link): GiLtfPair {
 /**
  * HE SU and HE ER SU PPDUs: 1x HE-LTF + 0.8 µs, 2x + 0.8, 2x + 1.6, 4x + 0.8,
  * 4x + 3.2 (27.3.11.7 HE-SIG-A GI+LTF Size field; 4x + 0.8 µs is signalled
- * with the DCM and STBC bits both set, which then apply neither).
+ * with the DCM and STBC bits both set, which then apply neither — so that
+ * pair carries neither STBC nor DCM: see HE_SU_4X_GI08_RULE).
  */
 export const HE_SU_GI_LTF: readonly GiLtfPair[] = ["1x+0.8", "2x+0.8", "2x+1.6", "4x+0.8", "4x+3.2"];
+/**
+ * HE SU / ER SU with 4x HE-LTF and GI 0.8 µs: HE-SIG-A's GI+LTF Size value 3
+ * means 4x + 0.8 µs only when its DCM and STBC bits are both 1, and then
+ * neither DCM nor STBC is applied (802.11ax-2021 27.3.11.7, HE-SIG-A fields of
+ * the HE SU and HE ER SU PPDU: GI+LTF Size, DCM and STBC subfields). Such a
+ * PPDU cannot signal STBC or DCM, so the link is refused. (The HE MU PPDU
+ * signals 4x + 0.8 µs by its own GI+LTF value and has no such restriction.)
+ */
+export const HE_SU_4X_GI08_RULE: Rule = (l) =>
+  l.ruTones !== null && !l.extendedRange
+    ? null
+    : l.ltf === 4 && l.giUs === 0.8 && (l.stbc || l.dcm)
+      ? `HE ${l.extendedRange ? "ER SU" : "SU"} 4xLTF with GI0.8 cannot carry ${l.stbc ? "STBC" : "DCM"}: HE-SIG-A signals that pair by setting both its STBC and DCM bits, which then apply neither; use 4xLTF GI3.2 or 2xLTF with ${l.stbc ? "STBC" : "DCM"}`
+      : null;
+
 /** HE MU PPDU: 2x + 0.8, 2x + 1.6, 4x + 0.8, 4x + 3.2 µs (27.3.11.7, HE-SIG-A of the HE MU PPDU). */
 export const HE_MU_GI_LTF: readonly GiLtfPair[] = ["2x+0.8", "2x+1.6", "4x+0.8", "4x+3.2"];
 
@@ -515,6 +537,7 @@ const HE_RULES: readonly Rule[] = [
   (l) => (l.ruTones === null ? giLtfRule(l.extendedRange ? "ER SU PPDU" : "SU PPDU", HE_SU_GI_LTF)(l) : null),
   (l) => (l.ruTones !== null && !l.extendedRange ? giLtfRule("MU PPDU (RU)", HE_MU_GI_LTF)(l) : null),
   (l) => (l.ruTones !== null && l.extendedRange ? giLtfRule("ER SU PPDU", HE_SU_GI_LTF)(l) : null),
+  HE_SU_4X_GI08_RULE,
 ];
 
 // ---------------------------------------------------------------------------
@@ -542,7 +565,27 @@ export function sensitivityFromTable(link: Link, table20: readonly Dbm[], whole:
   return table20[link.mcs!] + 3 * Math.log2(width / 20);
 }
 
-/** aPSDUMaxLength for HE: 6 500 631 octets (27.4.4 HE PHY characteristics; from memory). */
+/**
+ * The largest PSDU the fastest PPDU of a family carries within aPPDUMaxTime,
+ * octets: the shortest preamble, then as many data symbols as fit, all at
+ * the largest N_DBPS, less the SERVICE field:
+ *   N_SYM,max = floor((aPPDUMaxTime − T_preamble,min) ÷ T_SYM)
+ *   PSDU_max  = floor((N_SYM,max × N_DBPS,max − N_service) ÷ 8)
+ * (LDPC, so no tail bits; no packet extension.) HE: N_DBPS,max = 130 666
+ * (2×996 tones, HE-MCS 11, 8 SS: floor(1960 × 10 × 5/6 × 8)), T_SYM 13.6 µs,
+ * shortest preamble L-STF 8 + L-LTF 8 + L-SIG 4 + RL-SIG 4 + HE-SIG-A 8 +
+ * HE-STF 4 + 8 HE-LTFs of 1x + 0.8 µs (4 µs each) = 68 µs:
+ * N_SYM = floor(5416 ÷ 13.6) = 398, PSDU = floor((398 × 130 666 − 16) ÷ 8)
+ * = 6 500 631 octets — exactly HE's aPSDUMaxLength (802.11ax-2021 27.4.4,
+ * from memory), which is how we read the standard's derivation. EHT's value
+ * is derived the same way (eht.ts).
+ */
+export function largestPsduInPpduMaxTime(nDbpsMax: number, shortestPreambleUs: Microseconds, tSymUs: Microseconds): Bytes {
+  const nSym = Math.floor(roundUs((aPPDUMaxTime_us - shortestPreambleUs) / tSymUs));
+  return Math.floor((nSym * nDbpsMax - N_SERVICE_bits) / 8);
+}
+
+/** aPSDUMaxLength for HE: 6 500 631 octets (27.4.4 HE PHY characteristics; from memory; largestPsduInPpduMaxTime reproduces it). */
 export const HE_aPSDUMaxLength_bytes: Bytes = 6_500_631;
 
 /**

@@ -3,7 +3,8 @@
  * model of §3.1 (see pathLoss.ts): Table 2, power loss coefficients N, and
  * Table 3, floor penetration loss factors L_f(n) in dB, by frequency band and
  * environment. Offered as data so a sheet can use the recommendation's values
- * instead of the catalog defaults (N = 30, 15 dB per floor).
+ * for another environment; INDOORLOSS and REACH take Table 3's office L_f(n)
+ * for the band when floor_loss_db is omitted (officeFloorLossDb below).
  *
  * All values below are from memory of that edition and must be checked
  * against the recommendation before they are relied on. Later editions
@@ -13,7 +14,9 @@
 import { finiteNumber, describe } from "../args";
 import { invalid } from "../errors";
 import type { Db } from "../units";
-import { P1238_EDITION } from "./pathLoss";
+
+/** The edition whose eq. (1) and Tables 2 and 3 are used. */
+export const P1238_EDITION = "ITU-R P.1238-7 (02/2012)";
 
 export type P1238Environment = "residential" | "apartment" | "house" | "office" | "commercial";
 export const P1238_ENVIRONMENTS: readonly P1238Environment[] = ["residential", "apartment", "house", "office", "commercial"];
@@ -117,4 +120,57 @@ export function p1238Coefficients(environment: unknown, band: unknown, floors: u
     distancePower,
     floorLossDb: rule === undefined ? 0 : floorLossFor(rule, n, `${env} at ${row.band}`),
   };
+}
+
+/**
+ * Which Table 3 row serves a frequency, MHz, for the office default of
+ * INDOORLOSS and REACH. The recommendation labels rows by band; the spans
+ * around each label are our choice, wide enough for the 802.11 channels of
+ * that band: 2.4 GHz 2300–2600 (channels 1–14), 5.2 GHz 4900–5350 (U-NII-1
+ * and -2A), 5.8 GHz 5350–5925 (U-NII-2C and -3: 5.47–5.725 GHz lies between
+ * the two rows, and we take the 5.8 GHz row, the larger loss — a shorter
+ * reach, more access points). The 6 GHz band (5925–7125 MHz) has no Table 3
+ * row in this edition: there floor_loss_db must be given.
+ */
+export const P1238_OFFICE_FLOOR_SPANS_MHz: readonly { readonly band: string; readonly fromMHz: number; readonly toMHz: number }[] = [
+  { band: "900MHz", fromMHz: 900, toMHz: 1000 },
+  { band: "1.8-2GHz", fromMHz: 1700, toMHz: 2100 },
+  { band: "2.4GHz", fromMHz: 2300, toMHz: 2600 },
+  { band: "3.5GHz", fromMHz: 3300, toMHz: 3800 },
+  { band: "5.2GHz", fromMHz: 4900, toMHz: 5350 },
+  { band: "5.8GHz", fromMHz: 5350, toMHz: 5925 },
+];
+
+function noOfficeRow(freqMHz: number): never {
+  const spans = P1238_OFFICE_FLOOR_SPANS_MHz.map((r) => `${r.fromMHz}–${r.toMHz}`).join(", ");
+  invalid(
+    `floor_loss_db: ${P1238_EDITION} Table 3 has no office floor penetration factor at ${freqMHz} MHz (its office rows serve ${spans} MHz); ` +
+      `give floor_loss_db, the loss per floor in dB`,
+  );
+}
+
+function beyondOfficeRow(band: string, tabulated: number, floors: number): never {
+  invalid(
+    `floors: ${P1238_EDITION} Table 3 gives the office L_f at ${band} for up to ${tabulated} floor${tabulated === 1 ? "" : "s"}, got ${floors}; ` +
+      `give floor_loss_db, the loss per floor in dB, for more floors`,
+  );
+}
+
+/**
+ * L_f(n), dB, of Table 3 for an office at this frequency (from memory, as the
+ * whole table): 1.8–2 GHz 15 + 4(n − 1); 900 MHz 9, 19, 24 for 1–3 floors;
+ * 2.4 GHz 14 (1 floor); 3.5 GHz 18, 26; 5.2 GHz 16 (1 floor); 5.8 GHz 22, 28.
+ * Where the table stops (its per-floor rows), more floors are refused rather
+ * than extrapolated: the recommendation gives no rule there. 0 for n = 0 at
+ * any frequency.
+ *
+ * Example: officeFloorLossDb(1900, 3) → 15 + 4 × 2 = 23 dB.
+ */
+export function officeFloorLossDb(freqMHz: number, floors: number): Db {
+  if (floors === 0) return 0;
+  const span = P1238_OFFICE_FLOOR_SPANS_MHz.find((r) => freqMHz >= r.fromMHz && freqMHz <= r.toMHz);
+  if (span === undefined) noOfficeRow(freqMHz);
+  const rule = P1238_TABLES.find((r) => r.band === span.band)!.floorLoss.office!;
+  if (rule.kind === "perFloors" && floors > rule.byFloorsDb.length) beyondOfficeRow(span.band, rule.byFloorsDb.length, floors);
+  return floorLossFor(rule, floors, `office at ${span.band}`);
 }

@@ -13,6 +13,7 @@ import { finiteNumber, isMissing, numberInRange } from "../args";
 import { invalid } from "../errors";
 import type { Db, Dbm, MHz, Meters } from "../units";
 import { atLeast, atMost, nonNegative, optionalNumber, positive, wholeNonNegative } from "./_lib";
+import { P1238_EDITION, officeFloorLossDb } from "./p1238";
 
 /** Speed of light in vacuum, m/s (exact by the SI definition of the metre). */
 export const SPEED_OF_LIGHT_m_per_s = 299_792_458;
@@ -47,7 +48,7 @@ export function fsplDb(distanceM: unknown, freqMHz: unknown): Db {
  * penetration loss factor for n floors between the stations (L_f = 0 for
  * n = 0). That edition covers 900 MHz to 100 GHz.
  */
-export const P1238_EDITION = "ITU-R P.1238-7 (02/2012)";
+export { P1238_EDITION };
 /** The constant of eq. (1), dB. */
 export const P1238_CONSTANT_dB: Db = -28;
 /** Frequency range of the edition, MHz (its title: 900 MHz to 100 GHz). */
@@ -56,16 +57,16 @@ export const P1238_MAX_FREQ_MHz: MHz = 100_000;
 /** The model holds from 1 m (eq. (1): d > 1 m). */
 export const P1238_MIN_DISTANCE_m: Meters = 1;
 
-/** Catalog defaults (DESIGN.md §2): N = 30 and 15 dB per floor, P.1238-7's office values at 1.8–2 GHz. */
+/** Catalog default N = 30, P.1238-7 Table 2's office value at 1.8–2 GHz (DESIGN.md §2). */
 export const DEFAULT_DISTANCE_POWER = 30;
-export const DEFAULT_FLOOR_LOSS_dB: Db = 15;
 
 /** The model's arguments after checks. */
 interface IndoorModel {
   readonly freqMHz: MHz;
   readonly distancePower: number;
   readonly floors: number;
-  readonly floorLossDb: Db;
+  /** L_f(n), dB: Table 3's office value, or floors × floor_loss_db when that is given. */
+  readonly floorPenetrationDb: Db;
 }
 
 /** Guards, not model limits: no building has more floors; no floor takes more loss. */
@@ -91,35 +92,32 @@ function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, fl
   if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) outsideBands(f);
   const n = optionalNumber("distance_power", distancePower, DEFAULT_DISTANCE_POWER);
   if (!(n > 0 && n <= 100)) badDistancePower(n);
-  return {
-    freqMHz: f,
-    distancePower: n,
-    floors: atMost("floors", wholeNonNegative("floors", optionalNumber("floors", floors, 0)), INDOOR_MAX_FLOORS, ""),
-    floorLossDb: atMost("floor_loss_db", nonNegative("floor_loss_db", optionalNumber("floor_loss_db", floorLossDb, DEFAULT_FLOOR_LOSS_dB), "dB"), INDOOR_MAX_FLOOR_LOSS_dB, "dB"),
-  };
+  const nFloors = atMost("floors", wholeNonNegative("floors", optionalNumber("floors", floors, 0)), INDOOR_MAX_FLOORS, "");
+  return { freqMHz: f, distancePower: n, floors: nFloors, floorPenetrationDb: floorPenetrationDb(f, nFloors, floorLossDb) };
 }
 
 /**
- * L_f(n) from the catalog's single per-floor figure: n × floor_loss_db.
- * Our choice: P.1238's own L_f(n) is not linear in n (office 1.8–2 GHz:
- * 15 + 4(n − 1)), and one argument cannot carry every table row; a constant
- * loss per floor is the simplest rule that an auditor can recompute, and it
- * errs towards more loss (shorter reach, more access points). For the
- * recommendation's value at n floors, read p1238Coefficients(...) and pass
- * floors = 1 with floor_loss_db = L_f(n).
+ * L_f(n), dB. With floor_loss_db omitted: ITU-R P.1238-7 Table 3's floor
+ * penetration loss factor for an office at this frequency (officeFloorLossDb,
+ * from memory), which grows by less than its first-floor value per extra
+ * floor (1.8–2 GHz: 15 + 4(n − 1), so 3 floors cost 23 dB, not 45); #VALUE!
+ * where the table has no value. With floor_loss_db given: floors ×
+ * floor_loss_db, a constant loss per floor that the user chose.
  */
-function floorPenetrationDb(model: IndoorModel): Db {
-  return model.floors * model.floorLossDb;
+function floorPenetrationDb(freqMHz: number, floors: number, floorLossDb: unknown): Db {
+  if (isMissing(floorLossDb)) return officeFloorLossDb(freqMHz, floors);
+  const perFloor = atMost("floor_loss_db", nonNegative("floor_loss_db", finiteNumber("floor_loss_db", floorLossDb), "dB"), INDOOR_MAX_FLOOR_LOSS_dB, "dB");
+  return floors * perFloor;
 }
 
 /** 20·log10(f) − 28 + L_f(n): every term of eq. (1) except the distance term, dB. */
 function lossAtOneMetreDb(model: IndoorModel): Db {
-  return 20 * Math.log10(model.freqMHz) + P1238_CONSTANT_dB + floorPenetrationDb(model);
+  return 20 * Math.log10(model.freqMHz) + P1238_CONSTANT_dB + model.floorPenetrationDb;
 }
 
 /**
  * INDOORLOSS: ITU-R P.1238-7 site-general indoor path loss, dB (eq. (1)
- * above) with L_f(n) = floors × floor_loss_db.
+ * above) with L_f(n) from Table 3 (office) or floors × floor_loss_db.
  *
  * Planning estimate only (see the module note): not a replacement for a site
  * survey; local regulations, codes and licensed practice decide.

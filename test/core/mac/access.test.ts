@@ -1,6 +1,6 @@
 import { channelAccess, aggCount, goodputMbps } from "../../../src/core/mac";
 import { txtimeUs } from "../../../src/core/phy";
-import { expectValueError } from "../../_lib/expectError";
+import { expectNaError, expectValueError } from "../../_lib/expectError";
 
 const ERP = "ERP-OFDM 54Mbps 2.4GHz";
 const OFDM5 = "OFDM 54Mbps 5GHz";
@@ -103,9 +103,10 @@ describe("ACCESS and BREAKDOWN: one uncontended channel access", () => {
   it("refuses A-MSDU on a non-HT PHY", () => {
     expectValueError(() => channelAccess(OFDM5, 1500, null, "BE", null, "AMSDU=2"), /^mac_options: AMSDU=2 needs HT or later/);
   });
-  it("refuses a single PPDU longer than aPPDUMaxTime", () => {
+  it("answers #N/A when a single PPDU is longer than aPPDUMaxTime (valid inputs, no A-MPDU exists)", () => {
     // 4 × 1524 + 1522 = 7618-octet A-MSDU at 6.5 Mb/s lasts about 9.4 ms > 5484 µs
-    expectValueError(() => channelAccess("HT MCS0 20MHz 5GHz", 1500, null, "BE", null, "AMSDU=5"), /^packet_bytes: .*aPPDUMaxTime/);
+    expectNaError(() => channelAccess("HT MCS0 20MHz 5GHz", 1500, null, "BE", null, "AMSDU=5"), /^packet_bytes: .*aPPDUMaxTime/);
+    expectNaError(() => aggCount("HT MCS0 20MHz 5GHz", 1500, "BE", "AMSDU=5"), /^packet_bytes: .*aPPDUMaxTime/);
   });
   it("refuses a BA window over the family's", () => {
     expectValueError(() => channelAccess(HT7, 1500, null, "BE", null, "BA=256"), /^mac_options: BA=256 .*at most 64/);

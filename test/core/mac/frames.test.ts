@@ -83,6 +83,18 @@ describe("control frames (IEEE 802.11-2020 9.3.1)", () => {
   it("compressed BlockAck with a 256-bit bitmap is 56 octets (802.11ax-2021)", () => {
     expect(blockAckBytes(256)).toBe(2 + 2 + 6 + 6 + 2 + 2 + 32 + 4);
   });
+  // 802.11ax-2021 9.3.1.8.2 adds 16- and 32-octet bitmaps, 802.11be-2024 64 and 128 octets (from memory):
+  // the smallest that holds the window is sent.
+  it("compressed BlockAck for a 128-MPDU window has a 128-bit bitmap: 40 octets", () => {
+    expect(blockAckBytes(128)).toBe(2 + 2 + 6 + 6 + 2 + 2 + 16 + 4);
+  });
+  it("compressed BlockAck for a 512-MPDU window has a 512-bit bitmap: 88 octets", () => {
+    expect(blockAckBytes(512)).toBe(2 + 2 + 6 + 6 + 2 + 2 + 64 + 4);
+  });
+  it("a window between two sizes takes the larger bitmap (BA=100 → 128 bits, BA=300 → 512 bits)", () => {
+    expect(blockAckBytes(100)).toBe(blockAckBytes(128));
+    expect(blockAckBytes(300)).toBe(blockAckBytes(512));
+  });
   it("compressed BlockAck with a 1024-bit bitmap is 152 octets (802.11be-2024)", () => {
     expect(blockAckBytes(1024)).toBe(2 + 2 + 6 + 6 + 2 + 2 + 128 + 4);
   });

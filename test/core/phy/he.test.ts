@@ -15,39 +15,52 @@ import { durationSum } from "../../_lib/txtime";
 // Data subcarriers per RU, 802.11ax-2021 27.3.2 RU tables / 27.3.8 (N_SD).
 const N_SD: Record<string, number> = { RU26: 24, RU52: 48, RU106: 102, RU242: 234, RU484: 468, RU996: 980, RU2x996: 1960 };
 const WHOLE: Record<number, string> = { 20: "RU242", 40: "RU484", 80: "RU996", 160: "RU2x996" };
-// N_BPSCS and R per HE-MCS, 802.11ax-2021 27.5 (HE-MCS tables).
-const MOD: [number, number][] = [
-  [1, 1 / 2], [2, 1 / 2], [2, 3 / 4], [4, 1 / 2], [4, 3 / 4], [6, 2 / 3],
-  [6, 3 / 4], [6, 5 / 6], [8, 3 / 4], [8, 5 / 6], [10, 3 / 4], [10, 5 / 6],
+// N_BPSCS and R = num/den per HE-MCS, 802.11ax-2021 27.5 (HE-MCS tables).
+const MOD: [number, number, number][] = [
+  [1, 1, 2], [2, 1, 2], [2, 3, 4], [4, 1, 2], [4, 3, 4], [6, 2, 3],
+  [6, 3, 4], [6, 5, 6], [8, 3, 4], [8, 5, 6], [10, 3, 4], [10, 5, 6],
 ];
 const T_SYM: Record<number, number> = { 0.8: 13.6, 1.6: 14.4, 3.2: 16 }; // 27.3.8: 12.8 µs + GI
+/** The tables' integer N_DBPS = floor(N_SD × N_BPSCS × R × N_SS), in integer arithmetic (27.5). */
+const nDbps = (nSd: number, m: number, ss: number) => Math.floor((nSd * MOD[m][0] * MOD[m][1] * ss) / MOD[m][2]);
 
-describe("HE data rate (802.11ax-2021 27.5 rate tables)", () => {
-  it("prints 600.5 Mb/s for 80 MHz, 1 stream, MCS11, GI 0.8 µs", () => {
-    expect(rateMbps("HE MCS11 1SS 80MHz GI0.8")).toBeCloseTo(600.5, 1); // 980 × 10 × 5/6 ÷ 13.6
+describe("HE data rate (802.11ax-2021 27.5 rate tables: integer N_DBPS ÷ T_SYM)", () => {
+  // Published rate-table entries (802.11ax-2021 27.5, one decimal; from memory), checked to their printed precision.
+  it("prints 600.4 Mb/s for 80 MHz, 1 stream, MCS11, GI 0.8 µs (N_DBPS 8166, not 8166.7)", () => {
+    expect(rateMbps("HE MCS11 1SS 80MHz GI0.8")).toBeCloseTo(600.4, 1); // 8166 ÷ 13.6 = 600.44
+  });
+  it("prints 1201.0 Mb/s for 160 MHz, 1 stream, MCS11, GI 0.8 µs (N_DBPS 16 333)", () => {
+    expect(rateMbps("HE MCS11 1SS 160MHz GI0.8")).toBeCloseTo(1201.0, 1); // floor(1960 × 10 × 5/6) = 16333 ÷ 13.6 = 1200.96
   });
   it("prints 9607.8 Mb/s for 160 MHz, 8 streams, MCS11, GI 0.8 µs", () => {
-    expect(rateMbps("HE MCS11 8SS 160MHz")).toBeCloseTo(9607.8, 1); // 1960 × 10 × 5/6 × 8 ÷ 13.6
+    expect(rateMbps("HE MCS11 8SS 160MHz")).toBeCloseTo(9607.8, 1); // floor(1960 × 10 × 5/6 × 8) = 130666 ÷ 13.6
   });
   it("prints 7.3 Mb/s for 20 MHz, 1 stream, MCS0, GI 3.2 µs", () => {
-    expect(rateMbps("HE MCS0 20MHz GI3.2")).toBeCloseTo(7.3, 1); // 234 × 1 × 1/2 ÷ 16
+    expect(rateMbps("HE MCS0 20MHz GI3.2")).toBeCloseTo(7.3, 1); // 234 × 1 × 1/2 = 117 ÷ 16
   });
   it("prints 143.4 Mb/s for 20 MHz, 1 stream, MCS11, GI 0.8 µs", () => {
-    expect(rateMbps("HE MCS11 20MHz")).toBeCloseTo(143.4, 1); // 234 × 10 × 5/6 ÷ 13.6
+    expect(rateMbps("HE MCS11 20MHz")).toBeCloseTo(143.4, 1); // 234 × 10 × 5/6 = 1950 ÷ 13.6
   });
   it("prints 14.7 Mb/s for a 26-tone RU at MCS11, GI 0.8 µs", () => {
-    expect(rateMbps("HE MCS11 20MHz RU26")).toBeCloseTo(14.7, 1); // 24 × 10 × 5/6 ÷ 13.6
+    expect(rateMbps("HE MCS11 20MHz RU26")).toBeCloseTo(14.7, 1); // 24 × 10 × 5/6 = 200 ÷ 13.6
   });
-  it("halves the data subcarriers with DCM (MCS0 on 242 tones: 4.3 Mb/s)", () => {
-    expect(rateMbps("HE MCS0 20MHz DCM")).toBeCloseTo(4.3, 1); // (234/2) × 1 × 1/2 ÷ 13.6, 27.3.12.9
+  it("halves the data subcarriers with DCM (MCS0 on 242 tones: N_DBPS 58, 4.3 Mb/s)", () => {
+    expect(rateMbps("HE MCS0 20MHz DCM")).toBeCloseTo(4.3, 1); // floor((234/2) × 1 × 1/2) = 58 ÷ 13.6, 27.3.12.9
+  });
+  // Independent of any table memory: the rate is a whole number of data bits per symbol ÷ T_SYM, and never above the exact product.
+  it("gives a whole number of data bits per symbol, within one bit of N_SD × N_BPSCS × R × N_SS", () => {
+    for (const text of ["HE MCS11 1SS 80MHz", "HE MCS9 3SS 160MHz GI1.6", "HE MCS0 20MHz RU106 DCM", "HE MCS11 8SS 160MHz GI3.2"]) {
+      const link = parseLink(text);
+      const bits = rateMbps(text) * T_SYM[link.giUs!];
+      expect(Math.abs(bits - Math.round(bits))).toBeLessThan(1e-9);
+    }
   });
 
-  // Every width, GI, stream count and MCS of the whole-channel SU tables: N_SD × N_BPSCS × R × N_SS ÷ T_SYM.
+  // Every width, GI, stream count and MCS of the whole-channel SU tables: floor(N_SD × N_BPSCS × R × N_SS) ÷ T_SYM.
   const grid: [number, number, number, number][] = [];
   for (const w of [20, 40, 80, 160]) for (const gi of [0.8, 1.6, 3.2]) for (let ss = 1; ss <= 8; ss++) for (let m = 0; m <= 11; m++) grid.push([w, gi, ss, m]);
   it.each(grid)("rate table: %i MHz GI%s %iSS MCS%i", (w, gi, ss, m) => {
-    const [bpscs, r] = MOD[m];
-    expect(rateMbps(`HE MCS${m} ${ss}SS ${w}MHz GI${gi}`)).toBeCloseTo((N_SD[WHOLE[w]] * bpscs * r * ss) / T_SYM[gi], 6);
+    expect(rateMbps(`HE MCS${m} ${ss}SS ${w}MHz GI${gi}`)).toBeCloseTo(nDbps(N_SD[WHOLE[w]], m, ss) / T_SYM[gi], 9);
   });
 
   // Every RU size (27.5 RU rate tables), 1 stream, GI 0.8 µs, in the smallest channel that holds it.
@@ -55,8 +68,7 @@ describe("HE data rate (802.11ax-2021 27.5 rate tables)", () => {
   const home: Record<string, number> = { RU26: 20, RU52: 20, RU106: 20, RU242: 20, RU484: 40, RU996: 80, RU2x996: 160 };
   for (const ru of Object.keys(N_SD)) for (let m = 0; m <= 11; m++) ruGrid.push([ru, home[ru], m]);
   it.each(ruGrid)("RU rate table: %s in %i MHz MCS%i", (ru, w, m) => {
-    const [bpscs, r] = MOD[m];
-    expect(rateMbps(`HE MCS${m} ${w}MHz ${ru}`)).toBeCloseTo((N_SD[ru] * bpscs * r) / 13.6, 6);
+    expect(rateMbps(`HE MCS${m} ${w}MHz ${ru}`)).toBeCloseTo(nDbps(N_SD[ru], m, 1) / 13.6, 9);
   });
 });
 
@@ -207,6 +219,11 @@ describe("HE validity (802.11ax-2021 Clause 27)", () => {
     ["HE MCS0 2xLTF GI3.2", /does not allow 2xLTF with GI3.2/],
     ["HE MCS0 4xLTF GI1.6", /does not allow 4xLTF with GI1.6/],
     ["HE MCS0 RU106 1xLTF", /MU PPDU \(RU\) does not allow 1xLTF/],
+    // 802.11ax-2021 27.3.11.7: GI+LTF Size 3 means 4x + 0.8 µs only with HE-SIG-A's STBC and DCM bits both 1, which then apply neither.
+    ["HE MCS0 4xLTF GI0.8 STBC", /SU 4xLTF with GI0.8 cannot carry STBC/],
+    ["HE MCS0 4xLTF GI0.8 DCM", /SU 4xLTF with GI0.8 cannot carry DCM/],
+    ["HE MCS0 20MHz ER 4xLTF GI0.8 DCM", /ER SU 4xLTF with GI0.8 cannot carry DCM/],
+    ["HE MCS9 PE8 PE0", /"PE0" repeats the packet extension \(PE0\/PE8\/PE16\); give each setting once/],
   ];
   it.each(refused)("refuses %s with a message saying what is valid", (text, message) => {
     expect(() => parseLink(text)).toThrow(AirtallyError);
@@ -215,13 +232,10 @@ describe("HE validity (802.11ax-2021 Clause 27)", () => {
 
   it("accepts every width, band, MCS, stream count and SU GI/LTF pair the standard allows", () => {
     const pairs = ["1xLTF GI0.8", "2xLTF GI0.8", "2xLTF GI1.6", "4xLTF GI0.8", "4xLTF GI3.2"];
-    let n = 0;
     for (const band of [2.4, 5, 6]) for (const w of band === 2.4 ? [20, 40] : [20, 40, 80, 160])
       for (let m = 0; m <= 11; m++) for (let ss = 1; ss <= 8; ss++) for (const p of pairs) {
         expect(() => parseLink(`HE MCS${m} ${ss}SS ${w}MHz ${p} ${band}GHz`)).not.toThrow();
-        n++;
       }
-    expect(n).toBe((2 + 4 + 4) * 12 * 8 * 5);
   });
 
   it("accepts every RU that fits, with the MU GI/LTF pairs", () => {
@@ -242,6 +256,8 @@ describe("HE validity (802.11ax-2021 Clause 27)", () => {
       "HE MCS1 20MHz ER DCM", "HE MCS0 20MHz ER RU106 DCM", "HE MCS0 20MHz ER 1xLTF",
       "HE MCS0 DCM", "HE MCS1 DCM", "HE MCS3 2SS DCM", "HE MCS4 2SS 160MHz DCM", "HE MCS4 40MHz RU26 DCM",
       "HE MCS7 STBC", "HE MCS11 160MHz STBC", "HE MCS9 4SS 20MHz BCC", "HE MCS9 4SS 80MHz RU242 BCC", "HE MCS9 40MHz RU106 BCC",
+      // The HE MU PPDU signals 4x + 0.8 µs by its own GI+LTF value (27.3.11.7), so STBC may go with it there; SU with 4x + 3.2 µs too.
+      "HE MCS0 RU106 4xLTF GI0.8 STBC", "HE MCS0 4xLTF GI3.2 STBC", "HE MCS0 4xLTF GI3.2 DCM",
     ];
     for (const text of ok) expect(() => parseLink(text)).not.toThrow();
   });
@@ -249,22 +265,33 @@ describe("HE validity (802.11ax-2021 Clause 27)", () => {
   it("prints the canonical link text", () => {
     expect(parseLink("he mcs9 2ss 80mhz").text).toBe("HE MCS9 2SS 80MHz GI0.8 5GHz");
     expect(parseLink("HE MCS0 GI3.2 ER RU106 PE8 dcm").text).toBe("HE MCS0 1SS 20MHz GI3.2 ER RU106 PE8 DCM 5GHz");
-    expect(parseLink("HE MCS5 GI0.8 4xLTF BCC STBC 2.4GHz").text).toBe("HE MCS5 1SS 20MHz GI0.8 4xLTF BCC STBC 2.4GHz");
+    expect(parseLink("HE MCS5 GI0.8 4xLTF BCC 2.4GHz").text).toBe("HE MCS5 1SS 20MHz GI0.8 4xLTF BCC 2.4GHz");
+    expect(parseLink("HE MCS5 GI1.6 BCC STBC 2.4GHz").text).toBe("HE MCS5 1SS 20MHz GI1.6 BCC STBC 2.4GHz");
   });
 });
 
 describe("HE sensitivity, reference rate, MCS list", () => {
+  // Bases: the 20 MHz column of 802.11ax-2021 27.3.19.4's receiver minimum input sensitivity table (from memory:
+  // MCS0 −82, MCS7 −64, MCS11 −52 dBm), +3 dB per doubling of the width (the table's 40/80/160 MHz columns).
   it("gives −82 dBm for MCS0 at 20 MHz (27.3.19.4, from memory)", () => {
     expect(sensitivityDbm("HE MCS0")).toBe(-82);
   });
-  it("gives −52 + 6 dB for MCS11 at 80 MHz (two doublings)", () => {
+  it("gives −52 + 6 dB for MCS11 at 80 MHz (27.3.19.4: −52 dBm at 20 MHz, from memory; two doublings)", () => {
     expect(sensitivityDbm("HE MCS11 80MHz")).toBe(-52 + 3 + 3);
   });
-  it("uses the 20 MHz value for RUs smaller than 242 tones", () => {
+  it("uses the 20 MHz value for RUs smaller than 242 tones (27.3.19.4: MCS7 −64 dBm at 20 MHz, from memory)", () => {
     expect(sensitivityDbm("HE MCS7 160MHz RU26")).toBe(-64);
   });
-  it("uses the RU's own width for a 484-tone RU in 160 MHz", () => {
+  it("uses the RU's own width for a 484-tone RU in 160 MHz (27.3.19.4: MCS7 −64 dBm at 20 MHz, from memory; one doubling)", () => {
     expect(sensitivityDbm("HE MCS7 160MHz RU484")).toBe(-64 + 3);
+  });
+  // A second check independent of our memory of the HE table: for MCS 0–9 the HE minimum sensitivities are VHT's
+  // (IEEE 802.11-2020 Table 21-25, which vht.test.ts checks value by value), at 20, 40, 80 and 160 MHz.
+  it("equals VHT's minimum sensitivity for MCS 0–8 at every width (and MCS9 where VHT defines it)", () => {
+    for (const w of [20, 40, 80, 160]) for (let m = 0; m <= 9; m++) {
+      if (m === 9 && w === 20) continue; // VHT MCS9 1SS is not defined at 20 MHz
+      expect(sensitivityDbm(`HE MCS${m} ${w}MHz`)).toBe(sensitivityDbm(`VHT MCS${m} ${w}MHz`));
+    }
   });
   it("maps MCS7 (64-QAM 5/6) to the 54 Mb/s non-HT reference rate", () => {
     expect(nonHtReferenceRateMbps("HE MCS7")).toBe(54); // IEEE 802.11-2020 10.6.6.5.2

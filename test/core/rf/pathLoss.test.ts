@@ -55,9 +55,40 @@ describe("INDOORLOSS (ITU-R P.1238-7 site-general model, eq. (1))", () => {
     expect(indoorLossDb(20, 5200, 31, 1, 16)).toBeCloseTo(74.3201 + 40.3319 + 16 - 28, 3);
   });
 
-  it("counts floor_loss_db once per floor", () => {
-    // L_f(n) = n × floor_loss_db (our documented rule): 2 floors × 15 dB on top of 69.604 dB
-    expect(indoorLossDb(10, 2400, null, 2, null)).toBeCloseTo(67.604 + 30 - 28 + 2 * 15, 3);
+  it("counts a given floor_loss_db once per floor", () => {
+    // L_f(n) = n × floor_loss_db when the user gives it (DESIGN.md §2): 2 floors × 15 dB on top of 69.604 dB
+    expect(indoorLossDb(10, 2400, null, 2, 15)).toBeCloseTo(67.604 + 30 - 28 + 2 * 15, 3);
+  });
+
+  // Omitted floor_loss_db: P.1238-7 Table 3, office column (values from memory of the recommendation).
+  it("uses Table 3's office L_f(n) = 15 + 4(n − 1) at 1.8–2 GHz: 3 floors cost 23 dB, not 3 × 15", () => {
+    // 20·log10(1900) + 30·log10(10) − 28 = 65.575 + 30 − 28; + 15 + 4 × 2
+    expect(indoorLossDb(10, 1900, null, 3)).toBeCloseTo(20 * Math.log10(1900) + 30 - 28 + 23, 9);
+  });
+  it("uses Table 3's office 14 dB for one floor at 2.4 GHz", () => {
+    expect(indoorLossDb(10, 2437, null, 1) - indoorLossDb(10, 2437)).toBeCloseTo(14, 9);
+  });
+  it("uses Table 3's office 16 dB for one floor at 5.2 GHz and 22 / 28 dB for one / two floors at 5.8 GHz", () => {
+    expect(indoorLossDb(10, 5200, null, 1) - indoorLossDb(10, 5200)).toBeCloseTo(16, 9);
+    expect(indoorLossDb(10, 5785, null, 1) - indoorLossDb(10, 5785)).toBeCloseTo(22, 9);
+    expect(indoorLossDb(10, 5785, null, 2) - indoorLossDb(10, 5785)).toBeCloseTo(28, 9);
+  });
+  it("takes the larger 5.8 GHz row between the 5.2 and 5.8 GHz rows (U-NII-2C, our documented choice)", () => {
+    expect(indoorLossDb(10, 5500, null, 1) - indoorLossDb(10, 5500)).toBeCloseTo(22, 9);
+  });
+  it("never lowers the loss when a floor is added (any tabulated office row)", () => {
+    for (const [f, maxFloors] of [[950, 3], [1900, 10], [3500, 2], [5785, 2]] as const) {
+      for (let n = 1; n <= maxFloors; n++) expect(indoorLossDb(10, f, null, n)).toBeGreaterThan(indoorLossDb(10, f, null, n - 1));
+    }
+  });
+  it("refuses more floors than Table 3 gives, asking for floor_loss_db", () => {
+    expectRefusal(() => indoorLossDb(10, 2437, null, 2), "value", "floors");
+    expect(() => indoorLossDb(10, 2437, null, 2)).toThrow(/floor_loss_db/);
+  });
+  it("refuses floors in the 6 GHz band, which Table 3 does not cover, unless floor_loss_db is given", () => {
+    expectRefusal(() => indoorLossDb(10, 6105, null, 1), "value", "floor_loss_db");
+    expect(indoorLossDb(10, 6105, null, 1, 18) - indoorLossDb(10, 6105)).toBeCloseTo(18, 9);
+    expect(indoorLossDb(10, 6105, null, 0)).toBe(indoorLossDb(10, 6105));
   });
 
   it("treats empty optional arguments as the defaults", () => {
@@ -105,6 +136,13 @@ describe("REACH (INDOORLOSS solved for distance)", () => {
   it("round-trips with the defaults at 2.4 GHz", () => {
     const d = reachM(17, -70, 2437);
     expect(indoorLossDb(d, 2437)).toBeCloseTo(17 - -70, 9);
+  });
+
+  it("uses the same Table 3 floor rule as INDOORLOSS when floor_loss_db is omitted", () => {
+    // 1900 MHz, 2 floors: L_f = 15 + 4 = 19 dB (P.1238-7 Table 3 office, from memory)
+    const d = reachM(20, -70, 1900, null, 2);
+    expect(d).toBeCloseTo(Math.pow(10, (20 + 70 - 20 * Math.log10(1900) + 28 - 19) / 30), 9);
+    expect(indoorLossDb(d, 1900, null, 2)).toBeCloseTo(90, 9);
   });
 
   it("returns 1 m when the target is exactly the signal at 1 m", () => {
