@@ -135,7 +135,7 @@ export function cases(core: Core): Case[] {
   const { rateMbps, txtimeUs, sensitivityDbm, psduFit, txtimeTable, buildLink, edcaMixTable, breakdownTable } = core;
   const { fsplDb, indoorLossDb, noiseFloorDbm, reachM, topLink } = core.rf;
   const { mpduBytes, ampduBytes, expectedTransmissions, aggCount, aifsUs, channelAccess, goodputMbps, efficiency } = core.mac;
-  const { coverageAps, radios, beaconLoad, clientShare, mixShare } = core.budget;
+  const { coverageAps, radios, beaconShare, clientShare, mixShare } = core.budget;
   const { collisionProbability, saturationGoodputMbps, contentionShare } = core.contention;
   const rateByText = new Map(RATE_CASES.map((c) => [c.link, c] as const));
   const ndbpsByText = new Map(OFDM_LINKS.map((l, k) => [l, OFDM_RATES[k] * 4] as const));
@@ -302,7 +302,7 @@ export function cases(core: Core): Case[] {
     info("CONTENTION", "contention share of airtime (memoised)", (i) => contentionShare(HE_LINK, COUNTS[i & 63], 1500), (f) => (i) => f(HE_LINK, COUNTS[i & 63], 1500)),
     info("EDCAMIX", "multi-class EDCA fixed point, spilled", () => edcaMixTable(HE_LINK, edcaAccess, edcaCounts, 1500), (f) => () => f(HE_LINK, edcaAccess, edcaCounts, 1500)),
     info("TOPLINK", "best MCS at a signal level", (i) => topLink("HE", RSSI_DBM[i & 255], 2, 80), (f) => (i) => f("HE", RSSI_DBM[i & 255], 2, 80)),
-    info("BEACONLOAD", "SSIDs × APs × beacon TXTIME ÷ interval", (i) => beaconLoad(1 + (i & 7), 3), (f) => (i) => f(1 + (i & 7), 3)),
+    info("BEACONSHARE", "SSIDs × APs × (access + beacon TXTIME) ÷ interval", (i) => beaconShare("OFDM 6Mbps 5GHz", 1 + (i & 7), 3), (f) => (i) => f("OFDM 6Mbps 5GHz", 1 + (i & 7), 3)),
     info("CLIENTSHARE", "demand ÷ goodput; baseline: demand × one OFDM exchange ÷ 8·1500", (i) => clientShare(OFDM_LINKS[i & 7], SHARES[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], SHARES[i & 255]), (i) => (SHARES[i & 255] * ofdmExchangeUs(1500, OFDM_RATES[i & 7])) / (8 * 1500)),
     info("MIXSHARE", "Σ count × CLIENTSHARE over ranges", () => mixShare(mixLinks, mixCounts, mixDemands), (f) => () => f(mixLinks, mixCounts, mixDemands)),
     info("BREAKDOWN", "channel access terms as a spill", (i) => breakdownTable(HE_LINK, 1500, COUNTS[i & 63]), (f) => (i) => f(HE_LINK, 1500, COUNTS[i & 63])),

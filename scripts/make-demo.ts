@@ -37,6 +37,15 @@ export const RF_CAUTION =
   "and the limits vary by country; RF exposure limits protect people. The EIRP above is your figure: Airtally never suggests " +
   "a transmit power. Local regulations, codes and licensed practice decide.";
 
+/**
+ * The caution on the customer-facing Quote sheet, whose access point count
+ * comes from a coverage estimate built on the EIRP (README "Cautions").
+ */
+export const QUOTE_CAUTION =
+  "Caution: the access point count is a planning estimate from the Budget sheet (coverage from your EIRP figure) — it does not " +
+  "replace a site survey. Transmit power, EIRP and channel use are regulated and the limits vary by country; RF exposure limits " +
+  "protect people. Airtally never suggests a transmit power. Local regulations, codes and licensed practice decide.";
+
 type Cell = string | number | { f: string };
 const f = (formula: string): { f: string } => ({ f: formula });
 
@@ -146,7 +155,7 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
     ["Signal target at cell edge (dBm)", f("AIRTALLY.SENSITIVITY(B11)+B12"), "minimum sensitivity + margin", "0.0"],
     ["Centre frequency (MHz)", 5500, "", "0"],
     ["Distance power coefficient N", 30, "ITU-R P.1238 (INDOORLOSS default)", "0"],
-    ["Beacon overhead (share of airtime)", f("AIRTALLY.BEACONLOAD(B5,B6,,B7)"), "BEACONLOAD", "0.0%"],
+    ["Beacon overhead (share of airtime)", f("AIRTALLY.BEACONSHARE(B7,B5,B6)"), "BEACONSHARE, default beacon of a typical 5 GHz AP", "0.0%"],
     ["Cell reach (m)", f("AIRTALLY.REACH(B10,B13,B14,B15)"), "REACH, no floors between", "0.0"],
     ["Airtime one delegate laptop needs", f("AIRTALLY.CLIENTSHARE(Clients!H5,Clients!J5,B8)"), "CLIENTSHARE", "0.00%"],
   ];
@@ -191,18 +200,22 @@ export const QUOTE_ITEMS: [string, string, string, number][] = [
   ["Ceiling mount kit", "B5", "each", 35],
   ["PoE switch, 24 ports", "ROUNDUP(B5/24,0)", "each", 1450],
   ["Structured cabling run per access point", "B5", "each", 160],
-  ["Installation labour (1.5 h per access point)", "B5*1.5", "hours", 95],
+  ["Installation labour (1.5 h per access point, whole hours)", "ROUNDUP(B5*1.5,0)", "hours", 95],
   ["Site survey before and after installation", `1+ROUNDUP(Budget!B${BUDGET_FIRST_ZONE_ROW + ZONES.length}/2000,0)`, "days", 1100],
 ];
 
 function quoteSheet(wb: ExcelJS.Workbook): void {
   const ws = wb.addWorksheet("Quote");
-  title(ws, `Quote CPS-0142 — ${VENUE} wireless network`, `${INTEGRATOR} (fictional). Quantities follow the Budget sheet; prices are invented for this example.`);
-  header(ws, 4, ["Item", "Quantity", "Unit", "Unit price", "Line total"]);
+  title(
+    ws,
+    `Quote CPS-0142 — ${VENUE} wireless network`,
+    `${INTEGRATOR} (fictional). Quantities follow the Budget sheet; prices are invented for this example and are in your own currency.`,
+  );
+  header(ws, 4, ["Item", "Quantity", "Unit", "Unit price (your currency)", "Line total (your currency)"]);
   QUOTE_ITEMS.forEach(([item, qty, unit, price], i) => {
     const r = 5 + i;
     put(ws, `A${r}`, item);
-    put(ws, `B${r}`, f(qty), "0.0");
+    put(ws, `B${r}`, f(qty), "0");
     put(ws, `C${r}`, unit);
     put(ws, `D${r}`, price, "#,##0.00");
     put(ws, `E${r}`, f(`B${r}*D${r}`), "#,##0.00");
@@ -216,7 +229,12 @@ function quoteSheet(wb: ExcelJS.Workbook): void {
   put(ws, `E${sub + 1}`, f(`E${sub}*B${sub + 1}`), "#,##0.00");
   put(ws, `A${sub + 2}`, "Total").font = { bold: true };
   put(ws, `E${sub + 2}`, f(`E${sub}+E${sub + 1}`), "#,##0.00").font = { bold: true };
-  widths(ws, [48, 10, 8, 12, 14]);
+  const caution = sub + 4;
+  ws.mergeCells(`A${caution}:E${caution + 2}`);
+  const c = put(ws, `A${caution}`, QUOTE_CAUTION);
+  c.alignment = { wrapText: true, vertical: "top" };
+  c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
+  widths(ws, [48, 10, 8, 16, 18]);
 }
 
 function auditSheet(wb: ExcelJS.Workbook): void {

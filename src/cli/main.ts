@@ -11,6 +11,7 @@
 import * as fs from "fs";
 import * as path from "path";
 import { DEFAULT_DIST, loadAirtally, type AirtallyFunction } from "./bundle";
+import { CLI_CAUTION, speaksOfPower } from "./caution";
 import { evaluateFormula, isCellError, recalc, type Value } from "./engine";
 import { errorList, formatValue, sheetTable } from "./table";
 import { readBook, writeResults } from "./xlsx";
@@ -39,6 +40,8 @@ Exit codes:
   1  some cells are errors (#VALUE!, #N/A, #SPILL!, ...; listed with messages)
   2  usage error, unreadable file, or the add-in is not built
   3  the workbook has a circular reference (#CYCLE!, listed per cell)
+
+${CLI_CAUTION}
 `;
 
 export interface Io {
@@ -102,6 +105,7 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
   const errors = errorList(result);
   io.out(`${result.formulaCount} formulas, ${result.errors.length} error cells, ${result.cycles.length} circular references\n`);
   if (errors) io.out(errors + "\n");
+  io.out(CLI_CAUTION + "\n");
   if (outFile) {
     try {
       writeResults(loaded.workbook, result);
@@ -141,6 +145,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
     if (rest.length !== 1) return usage(io, "eval takes one formula (quote it for the shell)");
     const value = evaluateFormula(rest[0], functions);
     io.out(formatResult(value) + "\n");
+    if (speaksOfPower(rest[0])) io.out(CLI_CAUTION + "\n");
     const cells = Array.isArray(value) ? value.flat() : [value];
     if (cells.some((c) => isCellError(c) && c.error === "#CYCLE!")) return EXIT.cycle;
     return cells.some(isCellError) ? EXIT.cellErrors : EXIT.ok;

@@ -339,7 +339,7 @@ export function retx(mpdus: number, mpdu_loss: number, mode?: RetransmissionMode
  * @returns Collision probability of a transmission attempt (share 0..1)
  * @example =AIRTALLY.COLLIDE(10)
  * @example =AIRTALLY.COLLIDE(50, 31, 1023, 7)
- * @remarks G. Bianchi, "Performance analysis of the IEEE 802.11 distributed coordination function", IEEE JSAC 18(3), 2000, with the finite-retry extension cited in the model's source.
+ * @remarks G. Bianchi, "Performance analysis of the IEEE 802.11 distributed coordination function", IEEE JSAC 18(3), 2000, with the finite retry limit of H. Wu, Y. Peng, K. Long, S. Cheng and J. Ma, "Performance of reliable transport protocol over IEEE 802.11 wireless LAN: analysis and enhancement", IEEE INFOCOM 2002; the retry limit counts attempts, so their m is retry_limit − 1.
  * @helpurl https://localhost:3000/help/collide.html
  */
 export function collide(stations: number, cwmin?: number, cwmax?: number, retry_limit?: number): number {
@@ -413,7 +413,7 @@ export function contentionshare(
  * @param [mac_options] MAC settings text
  * @returns One row per class: access category, stations, aggregate goodput (Mb/s), goodput per station (Mb/s), share of airtime (0..1)
  * @example =AIRTALLY.EDCAMIX("HE MCS7 1SS 20MHz", {"VO";"BE"}, {2;8}, 1500)
- * @remarks Multi-class EDCA saturation model with AIFS differentiation (source named in the model's documentation), on Bianchi's model.
+ * @remarks Multi-class EDCA saturation model with AIFS differentiation by contention zones after J. W. Robinson and T. S. Randhawa, "Saturation throughput analysis of IEEE 802.11e enhanced distributed coordination function", IEEE JSAC 22(5), 2004, on Bianchi's model (IEEE JSAC 18(3), 2000) with the finite retry limit of Wu et al. (IEEE INFOCOM 2002).
  * @helpurl https://localhost:3000/help/edcamix.html
  */
 export function edcamix(
@@ -546,7 +546,7 @@ export function reach(
  * @param [overlap_share] Share of the radius given to overlap between cells, default 0.15
  * @returns Access points (count)
  * @example =AIRTALLY.COVERAGEAPS(5000, 25)
- * @remarks Hexagons inscribed in circles of the effective radius tile the plane; see the model's documentation for the geometry.
+ * @remarks Access points on a hexagonal grid, each serving the regular hexagon inscribed in its circle of radius r = reach_m × (1 − overlap_share): cell area (3√3/2)·r², count ceil(area_m2 ÷ cell area), at least 1 — the hexagonal cell layout of T. S. Rappaport, "Wireless Communications: Principles and Practice", 2nd ed., 2002, §3.2 (from memory).
  * @caution Planning estimate only; walls, ceilings and furniture change coverage — a site survey decides.
  * @helpurl https://localhost:3000/help/coverageaps.html
  */
@@ -555,21 +555,24 @@ export function coverageaps(area_m2: number, reach_m: number, overlap_share?: nu
 }
 
 /**
- * Share of a channel's airtime spent on beacons.
- * @customfunction BEACONLOAD
+ * Share of a channel's airtime spent on beacons, with a default beacon built element by element.
+ * @customfunction BEACONSHARE
+ * @param beacon_link Link text of the beacon PPDU, commonly the lowest basic rate, e.g. "OFDM 6Mbps 5GHz"; its band picks the default beacon
  * @param ssids SSIDs per access point (count)
- * @param [aps_heard] Access points heard on the channel (count), default 1
- * @param [beacon_bytes] Beacon frame length including FCS (bytes), default 350
- * @param [beacon_link] Link text of the beacon rate, default "OFDM 6Mbps 5GHz"
+ * @param [aps_heard] Access points heard on the channel, the own one included (count), default 1
+ * @param [beacon_bytes] Beacon MPDU length including MAC header and FCS (bytes); default: a typical EHT AP's beacon for the band (288 at 2.4 GHz, 304 at 5 GHz, 250 at 6 GHz)
  * @param [interval_tu] Beacon interval (TU of 1024 µs), default 100
  * @returns Share of airtime (share; above 1 means the beacons alone need more than the channel)
- * @example =AIRTALLY.BEACONLOAD(4, 3)
- * @example =AIRTALLY.BEACONLOAD(4, 3, 350, "DSSS 1Mbps 2.4GHz")
- * @remarks Each beacon costs the medium access before it plus its TXTIME; TU = 1024 µs (IEEE Std 802.11-2020 3.1).
- * @helpurl https://localhost:3000/help/beaconload.html
+ * @example =AIRTALLY.BEACONSHARE("OFDM 6Mbps 5GHz", 4, 3)
+ * @example =AIRTALLY.BEACONSHARE("ERP-OFDM 6Mbps 2.4GHz", 2, 3)
+ * @example =AIRTALLY.BEACONSHARE("DSSS 1Mbps 2.4GHz", 4, 3, 350)
+ * @remarks Each beacon costs the AP's AC_VO access (AIFS with the AP's AIFSN 1, i.e. PIFS, plus the mean backoff) and its TXTIME on beacon_link; no Ack follows; TU = 1024 µs (IEEE Std 802.11-2020 3.1). Share = ssids × aps_heard × airtime per beacon ÷ (interval_tu × 1024 µs).
+ * @remarks Default beacon_bytes: a typical AP of the band's newest family (EHT), vendor-neutral, summed element by element; each element counts its 2-octet Element ID and Length (an extension element 1 more). MAC header 24 (IEEE Std 802.11-2020 9.3.3.2); Timestamp 8, Beacon Interval 2, Capability Information 2 (9.4.1.10, 9.4.1.3, 9.4.1.4); SSID 34, a 32-octet SSID, the maximum (9.4.2.2); Supported Rates 10, eight rates (9.4.2.3); DSSS Parameter Set 3, 2.4 GHz (9.4.2.4); TIM 6 (9.4.2.5); Country 8, one triplet (9.4.2.8); ERP 3 and Extended Supported Rates 6, 2.4 GHz (9.4.2.11, 9.4.2.12); Extended Supported Rates 3 with the SAE hash-to-element selector, 6 GHz; RSN 22 with CCMP-128 and SAE (9.4.2.24); Extended Capabilities 10 (9.4.2.26); EDCA Parameter Set 20 (9.4.2.28); HT Capabilities 28 and HT Operation 24, 2.4 and 5 GHz (9.4.2.55, 9.4.2.56); VHT Capabilities 14 and VHT Operation 7, 5 GHz (9.4.2.157, 9.4.2.158); HE Capabilities 24 at 2.4 GHz, 28 at 5 and 6 GHz, no PPE Thresholds (IEEE Std 802.11ax-2021 9.4.2.248); HE Operation 9, 14 at 6 GHz (9.4.2.249); HE 6 GHz Band Capabilities 5, 6 GHz (9.4.2.263); EHT Capabilities 17, 20, 23 at 2.4, 5, 6 GHz (IEEE Std 802.11be-2024 9.4.2.313); EHT Operation 8, 11 at 6 GHz (9.4.2.311); Basic Multi-Link 16, common info only (9.4.2.312); FCS 4. Totals 288 octets at 2.4 GHz, 304 at 5 GHz, 250 at 6 GHz. The amendments' clause numbers and the EHT field lengths are from memory.
+ * @remarks Not counted, because they depend on the configuration (add them to beacon_bytes): vendor-specific elements, Power Constraint, TPC Report, BSS Load, Multiple BSSID, Reduced Neighbor Report, Transmit Power Envelope, MU EDCA and Spatial Reuse Parameter Sets, PPE Thresholds and per-link multi-link profiles.
+ * @helpurl https://localhost:3000/help/beaconshare.html
  */
-export function beaconload(ssids: number, aps_heard?: number, beacon_bytes?: number, beacon_link?: string, interval_tu?: number): number {
-  return numberCell(() => budget.beaconLoad(ssids, aps_heard, beacon_bytes, beacon_link, interval_tu));
+export function beaconshare(beacon_link: string, ssids: number, aps_heard?: number, beacon_bytes?: number, interval_tu?: number): number {
+  return numberCell(() => budget.beaconShare(beacon_link, ssids, aps_heard, beacon_bytes, interval_tu));
 }
 
 /**

@@ -41,7 +41,7 @@ export function budgetTemplate(): { address: string; formulas: Row[] } {
     ["", "", "", "", ""],
     ["SSIDs per radio", 3, "", "", ""],
     ["Access points heard on each channel", 2, "", "", ""],
-    ["Beacon overhead (BEACONLOAD)", "=AIRTALLY.BEACONLOAD(B9,B10)", "", "", ""],
+    ["Beacon overhead (BEACONSHARE, beacons at OFDM 6 Mb/s)", '=AIRTALLY.BEACONSHARE("OFDM 6Mbps 5GHz",B9,B10)', "", "", ""],
     ["Max channel utilization (common practice)", 0.7, "", "", ""],
     ["Radios for capacity (RADIOS)", "=AIRTALLY.RADIOS(E7,B12,B11)", "", "", ""],
     ["AP EIRP (dBm) — your figure, within local limits", 20, "", "", ""],

@@ -82,9 +82,9 @@ export const SAMPLES: Record<string, Sample[]> = {
   ],
   REACH: [{ args: [20, -67, 5500, null, null, null, null], expected: () => rf.reachM(20, -67, 5500) }],
   COVERAGEAPS: [{ args: [5000, 25, null], expected: () => budget.coverageAps(5000, 25) }],
-  BEACONLOAD: [
-    { args: [4, 3, null, null, null], expected: () => budget.beaconLoad(4, 3) },
-    { args: [4, 3, 350, "DSSS 1Mbps", 100], expected: () => budget.beaconLoad(4, 3, 350, "DSSS 1Mbps", 100) },
+  BEACONSHARE: [
+    { args: ["OFDM 6Mbps 5GHz", 4, 3, null, null], expected: () => budget.beaconShare("OFDM 6Mbps 5GHz", 4, 3) },
+    { args: ["DSSS 1Mbps", 4, 3, 350, 100], expected: () => budget.beaconShare("DSSS 1Mbps", 4, 3, 350, 100) },
   ],
   CLIENTSHARE: [
     { args: ["HE MCS7 2SS 40MHz", 5, null, null, null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5) },

@@ -3,13 +3,14 @@
  * way Excel saves add-in functions, and — recalculated headless — equal to
  * the core functions called directly on the same inputs. Needs `npm run build`.
  */
+import * as fs from "fs";
 import * as path from "path";
 import ExcelJS from "exceljs";
 import * as core from "../../src/core/index";
 import { loadAirtally } from "../../src/cli/bundle";
 import { recalc, type RecalcResult, type Value } from "../../src/cli/engine";
 import { bookFromExcel } from "../../src/cli/xlsx";
-import { buildDemo, BUDGET_FIRST_ZONE_ROW, CLIENT_CLASSES, DEMO_FILE, RF_CAUTION, ZONES } from "../../scripts/make-demo";
+import { buildDemo, BUDGET_FIRST_ZONE_ROW, CLIENT_CLASSES, DEMO_FILE, QUOTE_CAUTION, QUOTE_ITEMS, RF_CAUTION, ZONES } from "../../scripts/make-demo";
 
 const functions = loadAirtally();
 
@@ -57,12 +58,25 @@ describe("the committed demo workbook", () => {
   it("carries the RF caution on the Budget sheet", () => {
     expect(result.sheets.find((s) => s.name === "Budget")!.cells.some((c) => c.value === RF_CAUTION)).toBe(true);
   });
+
+  it("carries the caution on the customer-facing Quote sheet too (its access point count comes from an EIRP)", () => {
+    expect(result.sheets.find((s) => s.name === "Quote")!.cells.some((c) => c.value === QUOTE_CAUTION)).toBe(true);
+    expect(QUOTE_CAUTION).toMatch(/site survey/);
+    expect(QUOTE_CAUTION).toMatch(/vary by country/);
+  });
+
+  it("shows every Quote quantity as a whole number, and says the prices are in the user's currency", () => {
+    QUOTE_ITEMS.forEach((_item, i) => expect(Number.isInteger(num("Quote", `B${5 + i}`))).toBe(true));
+    const quote = committed.getWorksheet("Quote")!;
+    expect(QUOTE_ITEMS.map((_item, i) => quote.getCell(`B${5 + i}`).numFmt)).toEqual(QUOTE_ITEMS.map(() => "0"));
+    expect([quote.getCell("D4").value, quote.getCell("E4").value]).toEqual(["Unit price (your currency)", "Line total (your currency)"]);
+  });
 });
 
 describe("the demo, recalculated, equals the core called directly", () => {
   const links = CLIENT_CLASSES.map(([, family, mcs, ss, width, gi, band]) => core.buildLink(family, mcs, ss, width, gi, band, null).text);
   const demands = CLIENT_CLASSES.map((c) => c[7]);
-  const beacon = () => core.budget.beaconLoad(3, 2, null, "OFDM 6Mbps 5GHz");
+  const beacon = () => core.budget.beaconShare("OFDM 6Mbps 5GHz", 3, 2);
   const target = () => core.sensitivityDbm("HE MCS4 2SS 80MHz") + 5;
   const reach = () => core.rf.reachM(20, target(), 5500, 30);
   const aps = (i: number) => {
@@ -74,7 +88,7 @@ describe("the demo, recalculated, equals the core called directly", () => {
     expect(value("Clients", `H${4 + Number(i)}`)).toBe(link);
   });
 
-  it("puts BEACONLOAD(3 SSIDs, 2 APs heard, OFDM 6 Mb/s beacons) in the beacon overhead", () => {
+  it("puts BEACONSHARE(OFDM 6 Mb/s beacons, 3 SSIDs, 2 APs heard) in the beacon overhead", () => {
     expect(num("Budget", "B16")).toBeCloseTo(beacon(), 12);
   });
 
@@ -94,7 +108,7 @@ describe("the demo, recalculated, equals the core called directly", () => {
   it("prices the quote from the planned access points (hand sum of the line items × 1.08 contingency)", () => {
     const n = ZONES.reduce((s, _z, i) => s + aps(i), 0);
     const area = ZONES.reduce((s, z) => s + z[1], 0);
-    const lines = n * 780 + n * 35 + Math.ceil(n / 24) * 1450 + n * 160 + n * 1.5 * 95 + (1 + Math.ceil(area / 2000)) * 1100;
+    const lines = n * 780 + n * 35 + Math.ceil(n / 24) * 1450 + n * 160 + Math.ceil(n * 1.5) * 95 + (1 + Math.ceil(area / 2000)) * 1100;
     expect(num("Quote", "E14")).toBeCloseTo(lines * 1.08, 6);
   });
 
@@ -110,5 +124,8 @@ describe("the demo, recalculated, equals the core called directly", () => {
 });
 
 it("keeps the demo file where the README says", () => {
-  expect(path.relative(path.resolve(__dirname, "../.."), DEMO_FILE)).toBe(path.join("examples", "site-budget.xlsx"));
+  const root = path.resolve(__dirname, "../..");
+  const readme = fs.readFileSync(path.join(root, "README.md"), "utf8");
+  expect(readme).toContain(path.relative(root, DEMO_FILE).split(path.sep).join("/"));
+  expect(fs.existsSync(DEMO_FILE)).toBe(true);
 });

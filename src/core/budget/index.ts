@@ -5,6 +5,6 @@
  */
 export { coverageAps, hexagonAreaM2, DEFAULT_OVERLAP_SHARE } from "./coverage";
 export { radios, DEFAULT_MAX_UTILIZATION } from "./radios";
-export { beaconLoad, beaconAirtime, TU_us, DEFAULT_BEACON_BYTES, DEFAULT_BEACON_LINK, DEFAULT_INTERVAL_TU, BEACON_ACCESS, BEACON_MAC_OPTIONS } from "./beacon";
-export type { BeaconAirtime } from "./beacon";
+export { beaconShare, beaconAirtime, beaconParts, defaultBeaconBytes, BEACON_PARTS, TU_us, DEFAULT_INTERVAL_TU, BEACON_ACCESS, BEACON_MAC_OPTIONS } from "./beacon";
+export type { BeaconAirtime, BeaconElement, BeaconApFamily } from "./beacon";
 export { clientShare, mixShare, DEFAULT_PACKET_BYTES, DEFAULT_STATIONS } from "./share";

@@ -12,7 +12,7 @@ export const DEFAULT_MAX_UTILIZATION: Share = 0.7;
 /**
  * RADIOS: ceil(total_share ÷ (max_utilization − overhead_share)).
  * Each radio's channel may be busy up to max_utilization, of which
- * overhead_share (beacons, management, neighbours — e.g. BEACONLOAD) is
+ * overhead_share (beacons, management, neighbours — e.g. BEACONSHARE) is
  * already spent, so each radio carries max_utilization − overhead_share of
  * client airtime. total_share 0 needs 0 radios.
  *
