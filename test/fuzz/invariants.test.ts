@@ -9,7 +9,8 @@
  *   - PSDUFIT(d) fits in d and one byte more does not (DESIGN.md §2).
  *   - RATE rises with the MCS within a family at fixed width, streams and GI
  *     (each family's MCS table orders modulation × coding rate); a non-HT
- *     rate is the rate the text names (Table 15-? / 16-? / 17-4 rate sets).
+ *     rate is the rate the text names (IEEE 802.11-2020 15.1 and 16.1 rate
+ *     sets, Table 17-4).
  *   - GOODPUT ≤ RATE, EFFICIENCY = GOODPUT ÷ RATE in [0, 1], SATURATE ≤ RATE.
  *   - a result the catalog calls a "share 0..1" is in [0, 1].
  *   - spills are rectangular and their total rows equal the function they audit.

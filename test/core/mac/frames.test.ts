@@ -91,6 +91,15 @@ describe("control frames (IEEE 802.11-2020 9.3.1)", () => {
   it("compressed BlockAck for a 512-MPDU window has a 512-bit bitmap: 88 octets", () => {
     expect(blockAckBytes(512)).toBe(2 + 2 + 6 + 6 + 2 + 2 + 64 + 4);
   });
+  // Independent of our memory of the size list: for every window the bitmap covers the window, and halving it
+  // (the next power-of-two size down) would not, except for windows of 64 or less, where 64 bits is the floor.
+  it("sends, for every window 1–1024, a bitmap that covers it and is at most twice the window (64 bits at least)", () => {
+    for (let w = 1; w <= 1024; w++) {
+      const bitmapBits = (blockAckBytes(w) - 24) * 8;
+      expect(bitmapBits).toBeGreaterThanOrEqual(w);
+      expect(bitmapBits).toBeLessThanOrEqual(Math.max(64, 2 * w - 1));
+    }
+  });
   it("a window between two sizes takes the larger bitmap (BA=100 → 128 bits, BA=300 → 512 bits)", () => {
     expect(blockAckBytes(100)).toBe(blockAckBytes(128));
     expect(blockAckBytes(300)).toBe(blockAckBytes(512));

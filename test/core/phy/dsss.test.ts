@@ -142,10 +142,11 @@ describe("HR/DSSS LENGTH field and length extension bit (IEEE 802.11-2020 16.2.3
         }
       }
     }
-    expect(hrDsssOctetsFromLength(747, 1, 11)).toBe(1026);
   });
   it("matches the PSDU term of TXTIME", () => {
-    expect(hrDsssLengthField(1500, 11).lengthUs).toBe(Math.ceil((1500 * 8) / 11)); // = 1091
+    // Both are ceil(8 × 1500 ÷ 11) = 1091 µs (16.2.3.5 LENGTH; Clause 16 TXTIME)
+    const psduTerm = txtime("HR-DSSS 11Mbps 2.4GHz", 1500).terms.find((t) => t.label === "PSDU (µs)")!;
+    expect(hrDsssLengthField(1500, 11).lengthUs).toBe(psduTerm.value);
   });
   it("refuses a rate HR/DSSS does not have", () => {
     expectValueError(() => hrDsssLengthField(100, 54), /^rate_mbps: .*1, 2, 5\.5 or 11/);

@@ -36,7 +36,7 @@ describe("TXTIME memo per link", () => {
 
   it("alternates two lengths without mixing their answers", () => {
     for (let k = 0; k < 100; k++) {
-      expect(txtimeUs("OFDM 54Mbps 5GHz", 1500)).toBe(ofdmTxtime(1500, 216)); // 20 + 4 × ceil(12022 ÷ 216) = 248 µs
+      expect(txtimeUs("OFDM 54Mbps 5GHz", 1500)).toBe(ofdmTxtime(1500, 216)); // 20 + 4 × ceil(12022 ÷ 216) = 20 + 4 × 56 = 244 µs
       expect(txtimeUs("OFDM 54Mbps 5GHz", 1756)).toBe(ofdmTxtime(1756, 216));
     }
   });
