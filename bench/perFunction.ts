@@ -151,16 +151,16 @@ export function cases(core: Core): Case[] {
     {
       id: "RATE",
       kind: "text",
-      equation: "N_SD × N_BPSCS × R × N_SS ÷ T_SYM (IEEE 802.11-2020 Clauses 17, 19, 21; 802.11ax-2021 Clause 27)",
+      equation: "floor(N_SD × N_BPSCS × R × N_SS) ÷ T_SYM, the tables' integer N_DBPS (IEEE 802.11-2020 Clauses 17, 19, 21; 802.11ax-2021 27.5)",
       core: (i) => rateMbps(RATE_CASES[i & 7].link),
       bundle: (f) => (i) => f(RATE_CASES[i & 7].link),
       baseline: (i) => {
         const c = RATE_CASES[i & 7];
-        return (c.nsd * c.nbpscs * c.r * c.nss) / c.tsym;
+        return Math.floor(c.nsd * c.nbpscs * c.r * c.nss + 1e-6) / c.tsym; // + 1e-6: 5/6 in binary must not floor 1170 to 1169
       },
       sameText: (i) => {
         const c = rateByText.get(RATE_CASES[i & 7].link)!;
-        return (c.nsd * c.nbpscs * c.r * c.nss) / c.tsym;
+        return Math.floor(c.nsd * c.nbpscs * c.r * c.nss + 1e-6) / c.tsym;
       },
       texts: RATE_CASES.map((c) => c.link),
       inputs: 8,
