@@ -131,12 +131,19 @@ describe("EHT validity (802.11be-2024 Clause 36)", () => {
     expect(parseLink("eht mcs13 320mhz 6ghz gi3.2").text).toBe("EHT MCS13 1SS 320MHz GI3.2 6GHz");
   });
 
-  it("gives −46 + 12 dB for MCS13 at 320 MHz (from memory)", () => {
+  it("gives −46 + 12 dB for MCS13 at 320 MHz (802.11be-2024 36.3.21.4 minimum input sensitivity, from memory; four doublings)", () => {
     expect(sensitivityDbm("EHT MCS13 320MHz 6GHz")).toBe(-46 + 4 * 3);
   });
 
-  it("gives −49 dBm for MCS12 at 20 MHz (from memory)", () => {
+  it("gives −49 dBm for MCS12 at 20 MHz (802.11be-2024 36.3.21.4 minimum input sensitivity, from memory)", () => {
     expect(sensitivityDbm("EHT MCS12")).toBe(-49);
+  });
+
+  // Checks that do not rest on our memory of the EHT table: MCS 0–11 are HE's (whose 0–9 he.test.ts compares with
+  // VHT's Table 21-25), and each higher MCS needs a stronger signal (a denser constellation or a higher code rate).
+  it("equals HE's sensitivity for MCS 0–11 at 20–160 MHz and rises strictly with the MCS up to 13", () => {
+    for (const w of [20, 40, 80, 160]) for (let m = 0; m <= 11; m++) expect(sensitivityDbm(`EHT MCS${m} ${w}MHz`)).toBe(sensitivityDbm(`HE MCS${m} ${w}MHz`));
+    for (let m = 1; m <= 13; m++) expect(sensitivityDbm(`EHT MCS${m} 320MHz 6GHz`)).toBeGreaterThan(sensitivityDbm(`EHT MCS${m - 1} 320MHz 6GHz`));
   });
 
   it("lists MCS 0–13", () => {
