@@ -1,7 +1,7 @@
 /**
  * RATE and TXTIME agree, through the built bundle, on every HE and EHT
  * resource unit, MCS, guard interval, stream count and DCM setting the
- * standard allows: RATE × T_SYM is the N_DBPS that TXTIMEPARTS reports, and
+ * standard allows (and HE's ER SU and STBC forms): RATE × T_SYM is the N_DBPS that TXTIMEPARTS reports, and
  * that N_DBPS is a whole number of bits (802.11ax-2021 27.5 and 802.11be-2024
  * 36.5 list an integer N_DBPS; the data rate column is N_DBPS ÷ T_SYM).
  * Links the standard refuses (#VALUE!) are skipped, and counted, so the test
@@ -24,6 +24,7 @@ function linksOf(family: string, widths: number[], maxMcs: number): string[] {
   const shapes: string[] = widths.map((w) => `${w}MHz`);
   for (const [ru, w] of Object.entries(HOME)) shapes.push(`${w}MHz ${ru}`);
   if (family === "EHT") shapes.push("320MHz RU2x996");
+  if (family === "HE") shapes.push("20MHz ER", "20MHz ER RU106", "20MHz STBC", "80MHz RU484 STBC");
   const out: string[] = [];
   for (const shape of shapes) for (const gi of Object.keys(T_SYM)) for (let ss = 1; ss <= 8; ss++)
     for (let m = 0; m <= maxMcs; m++) for (const dcm of ["", " DCM"]) out.push(`${family} MCS${m} ${ss}SS ${shape} GI${gi}${dcm} 6GHz`);
