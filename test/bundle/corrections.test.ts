@@ -72,8 +72,8 @@ describe("the beacon function", () => {
     ]);
   });
 
-  it("BEACONSHARE with the defaults: one SSID, OFDM 6 Mb/s, the 304-octet 5 GHz beacon, 100 TU", () => {
-    // AIFS 16 + 9 + mean backoff 1.5 × 9 + TXTIME 20 + 4 × ceil((16 + 8 × 304 + 6) ÷ 24) = 470.5 µs per 102 400 µs
-    expect(call(bundle, "BEACONSHARE", "OFDM 6Mbps 5GHz", 1, null, null, null)).toBeCloseTo((25 + 13.5 + 20 + 4 * 103) / 102400, 12);
+  it("BEACONSHARE with the defaults: one SSID, OFDM 6 Mb/s, the 377-octet 5 GHz beacon, 100 TU", () => {
+    // AIFS 16 + 9 + mean backoff 1.5 × 9 + TXTIME 20 + 4 × ceil((16 + 8 × 377 + 6) ÷ 24) = 566.5 µs per 102 400 µs
+    expect(call(bundle, "BEACONSHARE", "OFDM 6Mbps 5GHz", 1, null, null, null)).toBeCloseTo((25 + 13.5 + 20 + 4 * 127) / 102400, 12);
   });
 });

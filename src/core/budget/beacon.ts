@@ -71,11 +71,17 @@ function extension(name: string, clause: string, bodyOctets: Bytes, bands: reado
  *   Information (3 octets) only at 6 GHz, where a 320 MHz BSS needs it;
  * - one Basic Multi-Link element with the common info only (an EHT AP
  *   affiliated with an AP MLD — the usual EHT deployment; our choice).
- * Not counted (configuration-dependent, add them to beacon_bytes): Power
- * Constraint, TPC Report, Quiet, Channel Switch, BSS Load, Multiple BSSID,
- * Reduced Neighbor Report, MU EDCA and Spatial Reuse Parameter Sets, PPE
- * Thresholds, Transmit Power Envelope, per-link Multi-Link profiles and every
- * vendor-specific element.
+ * - the AP is one of three affiliated with a tri-band AP MLD: a Reduced
+ *   Neighbor Report lists the other two; it schedules uplink OFDMA (MU EDCA
+ *   Parameter Set) and uses spatial reuse; it advertises radio measurement;
+ *   at 5 GHz it sends Power Constraint (TPC), at 6 GHz two Transmit Power
+ *   Envelope elements.
+ * Not counted (configuration-dependent, add them to beacon_bytes): TPC
+ * Report, Quiet, Channel Switch, BSS Load, Multiple BSSID, Mobility Domain,
+ * PPE Thresholds, per-link Multi-Link profiles and every vendor-specific
+ * element (APs commonly add several — a QoS parameter element of their
+ * vendor among them — common practice): a beacon captured from the AP itself
+ * is the better beacon_bytes.
  */
 export const BEACON_PARTS: readonly BeaconElement[] = [
   // MAC header of a management frame: Frame Control 2, Duration 2, Addresses 3 × 6, Sequence Control 2 (9.3.3.2).
@@ -99,6 +105,17 @@ export const BEACON_PARTS: readonly BeaconElement[] = [
   element("Extended Capabilities (8 octets)", "9.4.2.26", 8, ALL, "non-HT"),
   // EDCA Parameter Set: QoS Info 1, Update EDCA Info 1, four AC parameter records of 4 (9.4.2.28).
   element("EDCA Parameter Set", "9.4.2.28", 1 + 1 + 4 * 4, ALL, "HT"),
+  // Power Constraint: Local Power Constraint 1 octet; sent where transmit power control applies in the 5 GHz band
+  // (spectrum management, 11.8; dot11SpectrumManagementRequired in regulatory domains that ask for TPC — from memory).
+  element("Power Constraint", "9.4.2.13", 1, [5], "non-HT"),
+  // RM Enabled Capabilities: 5 octets of capability bits (radio measurement, 11.10), which enterprise APs advertise
+  // for neighbor reports and beacon reports (common practice).
+  element("RM Enabled Capabilities", "9.4.2.43", 5, ALL, "non-HT"),
+  // Transmit Power Envelope, 6 GHz: an AP in the 6 GHz band sends it (802.11ax-2021 26.17.2, from memory). Two
+  // elements: local maximum EIRP (Transmit Power Information 1 + one value per width 20/40/80/160 MHz = 4) and
+  // local maximum EIRP PSD (Transmit Power Information 1 + eight 20 MHz subchannel values of a 160 MHz BSS = 8).
+  element("Transmit Power Envelope (EIRP, 4 widths)", "9.4.2.161", 1 + 4, [6], "HE"),
+  element("Transmit Power Envelope (PSD, 8 subchannels)", "9.4.2.161", 1 + 8, [6], "HE"),
   // HT Capabilities: HT Capability Information 2, A-MPDU Parameters 1, Supported MCS Set 16, HT Extended Capabilities 2,
   // Transmit Beamforming Capabilities 4, ASEL Capability 1 = 26. Not sent in the 6 GHz band (802.11ax-2021 26.17, from memory).
   element("HT Capabilities", "9.4.2.55", 2 + 1 + 16 + 2 + 4 + 1, [2.4, 5], "HT"),
@@ -130,6 +147,16 @@ export const BEACON_PARTS: readonly BeaconElement[] = [
   // Basic Multi-Link: Multi-Link Control 2, Common Info: Length 1, AP MLD MAC Address 6, Link ID Info 1,
   // BSS Parameters Change Count 1, MLD Capabilities and Operations 2.
   extension("Basic Multi-Link (common info)", "802.11be-2024 9.4.2.312", 2 + 1 + 6 + 1 + 1 + 2, ALL, "EHT"),
+  // Reduced Neighbor Report: the other two APs of a tri-band AP MLD (2.4, 5 and 6 GHz links — our choice of the usual
+  // EHT deployment). Per Neighbor AP Information field: TBTT Information Header 2, Operating Class 1, Channel
+  // Number 1, one TBTT Information field of 16 (Neighbor AP TBTT Offset 1, BSSID 6, Short SSID 4, BSS Parameters 1,
+  // 20 MHz PSD 1, MLD Parameters 3) = 20 octets (9.4.2.170; the MLD Parameters subfield 802.11be-2024, from memory).
+  element("Reduced Neighbor Report (2 affiliated APs)", "9.4.2.170", 2 * (2 + 1 + 1 + 16), ALL, "EHT"),
+  // MU EDCA Parameter Set: QoS Info 1 + four MU AC parameter records of 3 (ECWmin/ECWmax 1, AIFSN/ACI 1, MU EDCA
+  // Timer 1); sent by an AP that schedules uplink OFDMA (802.11ax-2021 9.4.2.251, from memory).
+  extension("MU EDCA Parameter Set", "802.11ax-2021 9.4.2.251", 1 + 4 * 3, ALL, "HE"),
+  // Spatial Reuse Parameter Set: SR Control 1 and Non-SRG OBSS PD Max Offset 1 (802.11ax-2021 9.4.2.252, from memory).
+  extension("Spatial Reuse Parameter Set", "802.11ax-2021 9.4.2.252", 1 + 1, ALL, "HE"),
   { name: "FCS", clause: "9.2.4.8", octets: 4, bands: ALL, from: "non-HT" },
 ];
 
@@ -144,8 +171,8 @@ export function beaconParts(bandGHz: BandGHz, family: BeaconApFamily = "EHT"): B
  * AP of the band's newest family (EHT in every band, DESIGN.md §2), summed
  * part by part from BEACON_PARTS.
  *
- * Example: defaultBeaconBytes(5) → 24 + 12 + 34 + 10 + 6 + 8 + 22 + 10 + 20 + 28 + 24 + 14 + 7 + 28 + 9 + 20 + 8 + 16 + 4 = 304
- * (2.4 GHz: 288, 6 GHz: 250 — no HT or VHT elements there).
+ * Example: defaultBeaconBytes(5) → 24 + 12 + 34 + 10 + 6 + 8 + 22 + 10 + 20 + 3 + 7 + 28 + 24 + 14 + 7 + 28 + 9 + 20 + 8 + 16 + 42 + 16 + 5 + 4 = 377
+ * (2.4 GHz: 358, 6 GHz: 338 — no HT or VHT elements there).
  */
 export function defaultBeaconBytes(bandGHz: BandGHz, family: BeaconApFamily = "EHT"): Bytes {
   let sum = 0;
@@ -200,7 +227,7 @@ export function beaconAirtime(beaconLink: unknown, beaconBytes: Bytes): BeaconAi
  * the same. `beacon_bytes` is the whole beacon MPDU, MAC header and FCS
  * included (the PSDU).
  *
- * Example: beaconShare("OFDM 6Mbps 5GHz", 4, 3) → 12 beacons × (25 + 13.5 + TXTIME of 304 octets) ÷ 102 400 µs.
+ * Example: beaconShare("OFDM 6Mbps 5GHz", 4, 3) → 12 beacons × (25 + 13.5 + TXTIME of 377 octets) ÷ 102 400 µs.
  */
 export function beaconShare(
   beaconLink: unknown,

@@ -30,18 +30,21 @@ const DSSS1_BEACON_us = 30 + 70 + (144 + 48 + 8 * 350);
 const COMMON = 24 /* MAC header */ + 12 /* Timestamp 8, Beacon Interval 2, Capability 2 */ + (2 + 32) /* SSID, 32 octets */ +
   (2 + 8) /* Supported Rates, 8 */ + (2 + 4) /* TIM, 1-octet bitmap */ + (2 + 6) /* Country, 1 triplet */ +
   (2 + 20) /* RSN: 2 + 4 + 2 + 4 + 2 + 4 + 2 */ + (2 + 8) /* Extended Capabilities */ + (2 + 18) /* EDCA Parameter Set */ +
-  (3 + 13) /* Basic Multi-Link: control 2 + common info 11 */ + 4; /* FCS */
+  (3 + 13) /* Basic Multi-Link: control 2 + common info 11 */ + (2 + 5) /* RM Enabled Capabilities */ +
+  (2 + 2 * (2 + 1 + 1 + 16)) /* Reduced Neighbor Report, 2 neighbours with one 16-octet TBTT Information each */ +
+  (3 + 1 + 4 * 3) /* MU EDCA Parameter Set */ + (3 + 2) /* Spatial Reuse Parameter Set */ + 4; /* FCS */
 const HT = (2 + 26) + (2 + 22); // HT Capabilities, HT Operation (9.4.2.55, 9.4.2.56)
 const BEACON_2_4 = COMMON + (2 + 1) /* DSSS Parameter Set */ + (2 + 1) /* ERP */ + (2 + 4) /* Ext Supported Rates */ + HT +
   (3 + 6 + 11 + 4) /* HE Caps ≤ 80 */ + (3 + 6) /* HE Op */ + (3 + 2 + 9 + 3) /* EHT Caps ≤ 80 */ + (3 + 5) /* EHT Op */;
-const BEACON_5 = COMMON + HT + (2 + 12) /* VHT Caps */ + (2 + 5) /* VHT Op */ + (3 + 6 + 11 + 8) /* HE Caps 160 */ + (3 + 6) +
+const BEACON_5 = COMMON + (2 + 1) /* Power Constraint */ + HT + (2 + 12) /* VHT Caps */ + (2 + 5) /* VHT Op */ + (3 + 6 + 11 + 8) /* HE Caps 160 */ + (3 + 6) +
   (3 + 2 + 9 + 6) /* EHT Caps ≤ 80, 160 */ + (3 + 5);
 const BEACON_6 = COMMON + (2 + 1) /* Ext Supported Rates: SAE H2E selector */ + (3 + 6 + 11 + 8) + (3 + 6 + 5) /* HE Op + 6 GHz info */ +
-  (3 + 2) /* HE 6 GHz Band Caps */ + (3 + 2 + 9 + 9) /* EHT Caps ≤ 80, 160, 320 */ + (3 + 5 + 3) /* EHT Op + info */;
+  (3 + 2) /* HE 6 GHz Band Caps */ + (3 + 2 + 9 + 9) /* EHT Caps ≤ 80, 160, 320 */ + (3 + 5 + 3) /* EHT Op + info */ +
+  (2 + 1 + 4) + (2 + 1 + 8); /* Transmit Power Envelope: EIRP at 4 widths, PSD of 8 subchannels */
 
 describe("the default beacon, element by element", () => {
-  it("is 288 octets at 2.4 GHz, 304 at 5 GHz and 250 at 6 GHz for a typical EHT AP", () => {
-    expect([BEACON_2_4, BEACON_5, BEACON_6]).toEqual([288, 304, 250]);
+  it("is 358 octets at 2.4 GHz, 377 at 5 GHz and 338 at 6 GHz for a typical EHT AP", () => {
+    expect([BEACON_2_4, BEACON_5, BEACON_6]).toEqual([358, 377, 338]);
     expect(defaultBeaconBytes(2.4)).toBe(BEACON_2_4);
     expect(defaultBeaconBytes(5)).toBe(BEACON_5);
     expect(defaultBeaconBytes(6)).toBe(BEACON_6);
@@ -50,8 +53,8 @@ describe("the default beacon, element by element", () => {
     expect(beaconParts(6).some((p) => /^(HT|VHT) /.test(p.name))).toBe(false);
     expect(beaconParts(2.4).some((p) => /^VHT /.test(p.name))).toBe(false);
   });
-  it("shrinks for an older AP: an HE AP at 5 GHz drops the EHT and Multi-Link elements (20 + 8 + 16 octets)", () => {
-    expect(defaultBeaconBytes(5, "HE")).toBe(BEACON_5 - 20 - 8 - 16);
+  it("shrinks for an older AP: an HE AP at 5 GHz drops the EHT, Multi-Link and Reduced Neighbor Report elements (20 + 8 + 16 + 42 octets)", () => {
+    expect(defaultBeaconBytes(5, "HE")).toBe(BEACON_5 - 20 - 8 - 16 - 42);
   });
   it("names a clause for every part", () => {
     for (const band of [2.4, 5, 6] as const) for (const p of beaconParts(band)) expect(p.clause).toMatch(/\d+\.\d/);
@@ -62,16 +65,16 @@ describe("the default beacon, element by element", () => {
   });
 });
 
-/** OFDM 6 Mb/s at 5 GHz, the default 304-octet beacon: N_SYM = ceil((16 + 8·304 + 6) ÷ 24) = ceil(102.25) = 103 → 20 + 412 µs. */
-const OFDM6_DEFAULT_BEACON_us = 25 + 13.5 + (16 + 4 + 4 * 103);
+/** OFDM 6 Mb/s at 5 GHz, the default 377-octet beacon: N_SYM = ceil((16 + 8·377 + 6) ÷ 24) = ceil(126.58) = 127 → 20 + 508 µs. */
+const OFDM6_DEFAULT_BEACON_us = 25 + 13.5 + (16 + 4 + 4 * 127);
 
 describe("BEACONSHARE", () => {
   it("costs one 350-octet beacon at OFDM 6 Mb/s as AIFS + mean backoff + TXTIME", () => {
     expect(beaconAirtime("OFDM 6Mbps 5GHz", 350).totalUs).toBe(OFDM6_BEACON_us);
   });
 
-  it("takes 0.46 % of a 5 GHz channel for one SSID with the default beacon", () => {
-    // 470.5 µs per 102 400 µs
+  it("takes 0.55 % of a 5 GHz channel for one SSID with the default beacon", () => {
+    // 566.5 µs per 102 400 µs
     expect(beaconShare("OFDM 6Mbps 5GHz", 1)).toBeCloseTo(OFDM6_DEFAULT_BEACON_us / (100 * 1024), 12);
   });
 
@@ -84,9 +87,9 @@ describe("BEACONSHARE", () => {
     expect(beaconShare("DSSS 1Mbps 2.4GHz", 4, 3, 350)).toBeCloseTo((12 * DSSS1_BEACON_us) / 102400, 12);
   });
 
-  it("uses the 2.4 GHz default beacon for a 2.4 GHz link: 288 octets at 1 Mb/s", () => {
-    // 30 + 70 + 144 + 48 + 8 × 288 = 2596 µs
-    expect(beaconShare("DSSS 1Mbps 2.4GHz", 1)).toBeCloseTo((30 + 70 + 144 + 48 + 8 * 288) / 102400, 12);
+  it("uses the 2.4 GHz default beacon for a 2.4 GHz link: 358 octets at 1 Mb/s", () => {
+    // 30 + 70 + 144 + 48 + 8 × 358 = 3156 µs
+    expect(beaconShare("DSSS 1Mbps 2.4GHz", 1)).toBeCloseTo((30 + 70 + 144 + 48 + 8 * 358) / 102400, 12);
   });
 
   it("scales with the interval: 200 TU halves the share", () => {
