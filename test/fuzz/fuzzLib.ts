@@ -286,6 +286,8 @@ function enumerateLinks(): ValidLink[] {
 export const VALID_LINKS: readonly ValidLink[] = enumerateLinks();
 export const validLink: fc.Arbitrary<ValidLink> = VALID_LINKS.length > 0 ? fc.constantFrom(...VALID_LINKS) : fc.constant(undefined as unknown as ValidLink);
 export const validLinkText: fc.Arbitrary<string> = validLink.map((l) => l.text);
+/** The HE and EHT links of the pool: the ones a multi-user exchange accepts. */
+const MU_LINKS: readonly ValidLink[] = VALID_LINKS.filter((l) => l.family === "HE" || l.family === "EHT");
 
 // ---------------------------------------------------------------------------
 // Near-miss link text, built from valid canonical links
@@ -388,7 +390,7 @@ export const nearMissLinkText: fc.Arbitrary<string> = fc
 
 const access = fc.constantFrom("BK", "BE", "VI", "VO", "DCF", "be", " vo ");
 const protection = fc.constantFrom("none", "RTS", "CTS", "rts", "None");
-const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4");
+const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4", "MUBAR");
 const macOptions = fc.array(macOption, { maxLength: 4 }).map((xs) => [...new Set(xs)].join(" "));
 const share = fc.double({ min: 0, max: 1, noNaN: true });
 
@@ -443,6 +445,9 @@ const PLAUSIBLE: Record<string, fc.Arbitrary<unknown>> = {
   area_m2: fc.double({ min: 1, max: 100000, noNaN: true }),
   reach_m: fc.double({ min: 1, max: 100, noNaN: true }),
   overlap_share: fc.double({ min: 0, max: 0.5, noNaN: true }),
+  // Multi-user exchanges: mostly counts that fit some RU plan (9 × RU26 in 20 MHz … 148 in 320 MHz), some past every plan.
+  users: fc.oneof({ weight: 3, arbitrary: fc.constant(1) }, { weight: 4, arbitrary: fc.integer({ min: 1, max: 9 }) }, { weight: 1, arbitrary: fc.integer({ min: 1, max: 160 }) }),
+  direction: fc.constantFrom("down", "up", "DL", "UL", " Up "),
 };
 
 /** A plausible value for a parameter: by name if known, else by declared type and dimensionality. */
@@ -522,6 +527,15 @@ function joint(fn: FunctionMeta): fc.Arbitrary<(args: unknown[]) => unknown[]> |
         out[at("demands_mbps")] = rows.map(([, , d]) => [d]);
         return out;
       });
+  }
+  if (has("link", "users") && MU_LINKS.length > 0) {
+    // Multi-user exchanges: an HE or EHT link (with or without an RU) and a user count small enough for most RU plans.
+    return fc.tuple(fc.constantFrom(...MU_LINKS), fc.integer({ min: 1, max: 9 })).map(([l, u]) => (args: unknown[]) => {
+      const out = [...args];
+      out[at("link")] = l.text;
+      out[at("users")] = u;
+      return out;
+    });
   }
   if (has("mpdus") && !names.some((n) => /(^|_)link$/.test(n))) {
     // Without a link there is no "auto" aggregation to size (RETX): a count of MPDUs.
