@@ -529,13 +529,19 @@ function joint(fn: FunctionMeta): fc.Arbitrary<(args: unknown[]) => unknown[]> |
       });
   }
   if (has("link", "users") && MU_LINKS.length > 0) {
-    // Multi-user exchanges: an HE or EHT link (with or without an RU) and a user count small enough for most RU plans.
-    return fc.tuple(fc.constantFrom(...MU_LINKS), fc.integer({ min: 1, max: 9 })).map(([l, u]) => (args: unknown[]) => {
-      const out = [...args];
-      out[at("link")] = l.text;
-      out[at("users")] = u;
-      return out;
-    });
+    // Multi-user exchanges: an HE or EHT link; one user on the whole channel, on an RU a count that most RU plans hold
+    // (the 9 × RU26 of 20 MHz at most), and a few MPDUs per user so the exchange fits its limits.
+    const users = fc.oneof(fc.constant(1), fc.integer({ min: 1, max: 2 }), fc.integer({ min: 1, max: 9 }));
+    return fc
+      .tuple(fc.constantFrom(...MU_LINKS), users, fc.oneof(fc.constant("auto"), fc.integer({ min: 1, max: 16 })), fc.constantFrom("down", "up"))
+      .map(([l, u, m, d]) => (args: unknown[]) => {
+        const out = [...args];
+        out[at("link")] = l.text;
+        out[at("users")] = l.options !== null && /^RU/.test(l.options) ? u : 1;
+        if (at("mpdus") >= 0) out[at("mpdus")] = m;
+        if (at("direction") >= 0) out[at("direction")] = d;
+        return out;
+      });
   }
   if (has("mpdus") && !names.some((n) => /(^|_)link$/.test(n))) {
     // Without a link there is no "auto" aggregation to size (RETX): a count of MPDUs.
