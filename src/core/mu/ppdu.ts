@@ -202,8 +202,8 @@ function roundNoise(x: number): number {
 export function checkTbGiLtf(link: Link): void {
   if (!TB_GI_LTF.includes(giLtfPair(link))) {
     invalid(
-      `link: an ${link.family} TB PPDU (direction up) allows 1xLTF GI1.6, 2xLTF GI1.6 or 4xLTF GI3.2 (the Trigger frame's GI and LTF type), ` +
-        `got ${link.ltf}xLTF GI${link.giUs}; use e.g. GI1.6 in the link`,
+      `link: an ${link.family} TB PPDU (direction up) takes 2xLTF GI1.6 or 4xLTF GI3.2 (the Trigger frame's GI and LTF types; ` +
+        `its 1xLTF GI1.6 is no pair an MU or SU link allows), got ${link.ltf}xLTF GI${link.giUs}; use GI1.6 or GI3.2 in the link`,
     );
   }
 }

@@ -88,7 +88,7 @@ describe("argument checks", () => {
     expectValueErrorNaming(() => muAccessUs("HE MCS0 1SS 20MHz ER 5GHz", 1, 100), "link");
   });
   it("up needs a TB PPDU GI/LTF pair", () => {
-    expectValueError(() => muAccessUs(L20, 9, 100, "up"), /^link: an HE TB PPDU \(direction up\) allows 1xLTF GI1.6, 2xLTF GI1.6 or 4xLTF GI3.2/);
+    expectValueError(() => muAccessUs(L20, 9, 100, "up"), /^link: an HE TB PPDU \(direction up\) takes 2xLTF GI1.6 or 4xLTF GI3.2/);
   });
   it("direction, access, mpdus and MUBAR with up are refused with their names", () => {
     expectValueErrorNaming(() => muAccessUs(L20, 9, 100, "sideways"), "direction");
