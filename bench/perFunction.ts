@@ -96,6 +96,8 @@ const COUNTS = Array.from({ length: 64 }, (_, i) => 1 + i);
 const LOSSES = [0.01, 0.02, 0.05, 0.08, 0.1, 0.15, 0.2, 0.3];
 const ACCESS = ["BE", "BK", "VI", "VO"];
 const HE_LINK = "HE MCS7 1SS 80MHz GI0.8 5GHz";
+const MU_LINK = "HE MCS7 1SS 80MHz GI0.8 RU106 5GHz";
+const MU_UP_LINK = "HE MCS7 1SS 80MHz GI1.6 RU106 5GHz";
 
 /** Equation constants, each with its source. */
 const SPEED_OF_LIGHT = 299_792_458; // m/s, SI definition
@@ -137,6 +139,7 @@ export function cases(core: Core): Case[] {
   const { mpduBytes, ampduBytes, expectedTransmissions, aggCount, aifsUs, channelAccess, goodputMbps, efficiency } = core.mac;
   const { coverageAps, radios, beaconShare, clientShare, mixShare } = core.budget;
   const { collisionProbability, saturationGoodputMbps, contentionShare } = core.contention;
+  const { muAccessUs, muGoodputMbps, muBreakdownTable } = core.mu;
   const rateByText = new Map(RATE_CASES.map((c) => [c.link, c] as const));
   const ndbpsByText = new Map(OFDM_LINKS.map((l, k) => [l, OFDM_RATES[k] * 4] as const));
   const sensitivityByText = new Map(OFDM_LINKS.map((l, k) => [l, OFDM_SENSITIVITY[k]] as const));
@@ -306,6 +309,10 @@ export function cases(core: Core): Case[] {
     info("CLIENTSHARE", "demand ÷ goodput; baseline: demand × one OFDM exchange ÷ 8·1500", (i) => clientShare(OFDM_LINKS[i & 7], SHARES[i & 255]), (f) => (i) => f(OFDM_LINKS[i & 7], SHARES[i & 255]), (i) => (SHARES[i & 255] * ofdmExchangeUs(1500, OFDM_RATES[i & 7])) / (8 * 1500)),
     info("MIXSHARE", "Σ count × CLIENTSHARE over ranges", () => mixShare(mixLinks, mixCounts, mixDemands), (f) => () => f(mixLinks, mixCounts, mixDemands)),
     info("BREAKDOWN", "channel access terms as a spill", (i) => breakdownTable(HE_LINK, 1500, COUNTS[i & 63]), (f) => (i) => f(HE_LINK, 1500, COUNTS[i & 63])),
+    info("MUACCESS", "one multi-user exchange, down (MU PPDU + TB PPDU acks), 1–8 × RU106 in 80 MHz", (i) => muAccessUs(MU_LINK, 1 + (i & 7), PACKETS[i & 255], "down", 1 + (i & 7)), (f) => (i) => f(MU_LINK, 1 + (i & 7), PACKETS[i & 255], "down", 1 + (i & 7))),
+    info("MUACCESS up", "one multi-user exchange, up (Trigger + TB PPDU + Multi-STA BlockAck), 1–8 × RU106 in 80 MHz", (i) => muAccessUs(MU_UP_LINK, 1 + (i & 7), PACKETS[i & 255], "up", 1 + (i & 7)), (f) => (i) => f(MU_UP_LINK, 1 + (i & 7), PACKETS[i & 255], "up", 1 + (i & 7))),
+    info("MUGOODPUT", "users' packet bits ÷ MUACCESS, mpdus auto", (i) => muGoodputMbps(MU_LINK, 1 + (i & 7), PACKETS[i & 255]), (f) => (i) => f(MU_LINK, 1 + (i & 7), PACKETS[i & 255])),
+    info("MUBREAKDOWN", "multi-user exchange terms as a spill", (i) => muBreakdownTable(MU_UP_LINK, 1 + (i & 7), PACKETS[i & 255], "up", 1), (f) => (i) => f(MU_UP_LINK, 1 + (i & 7), PACKETS[i & 255], "up", 1)),
   ];
 }
 

@@ -259,6 +259,64 @@ function auditSheet(wb: ExcelJS.Workbook): void {
   widths(ws, [40, 12, 4, 30, 12, 4, 18, 12, 14, 14, 14]);
 }
 
+/** The planning caution of the OFDMA comparison (README "Cautions", same policy). */
+export const OFDMA_CAUTION =
+  "Caution: planning estimate only. MUACCESS and MUGOODPUT assume every handset has a packet waiting, equal resource units, " +
+  "no MU-MIMO, no random access (UORA) and no other traffic or collisions; real access point schedulers differ. " +
+  "Measurements and a site survey decide.";
+
+/** OFDMA comparison inputs: voice packet (bytes), handsets per exchange, RU per handset, GI of the RU link (µs). */
+export const OFDMA_PACKET_BYTES = 200;
+export const OFDMA_HANDSETS = 8;
+export const OFDMA_RU = "RU106";
+export const OFDMA_GI_US = 1.6;
+
+/**
+ * One by one against OFDMA for the staff handsets (Clients row 4): the same
+ * handsets, one voice packet each. One by one, each handset gets a channel
+ * access of its own on the whole channel, so a round costs users × ACCESS
+ * and the handsets together get GOODPUT; with OFDMA one exchange serves them
+ * all on their RUs (MUACCESS, MUGOODPUT).
+ */
+function ofdmaSheet(wb: ExcelJS.Workbook): void {
+  const ws = wb.addWorksheet("OFDMA");
+  title(ws, "OFDMA for the staff handsets — one by one or in one multi-user exchange", "One voice packet per handset, access category VO, alone on the channel; the link is the Staff handheld class on the Clients sheet.");
+  header(ws, 4, ["Assumption", "Value", "Note"]);
+  const rows: [string, Cell, string][] = [
+    ["Handset link (whole channel)", f("Clients!H4"), "Clients sheet, Staff handheld"],
+    ["Voice packet (bytes)", OFDMA_PACKET_BYTES, "G.711 20 ms: 160 + RTP 12 + UDP 8 + IPv4 20 (common practice)"],
+    ["Handsets per exchange", OFDMA_HANDSETS, "every one with a packet waiting"],
+    ["RU per handset", OFDMA_RU, `${OFDMA_HANDSETS} × RU106 fit an 80 MHz channel`],
+    ["Handset link on its RU", f(`AIRTALLY.LINK(Clients!B4,Clients!C4,Clients!D4,Clients!E4,${OFDMA_GI_US},Clients!G4,B8)`), "GI 1.6 µs: what a TB PPDU (up) allows"],
+  ];
+  rows.forEach(([label, value, note], i) => {
+    const r = 5 + i;
+    put(ws, `A${r}`, label);
+    put(ws, `B${r}`, value);
+    put(ws, `C${r}`, note).font = { italic: true, color: { argb: "FF4A5A60" } };
+  });
+  header(ws, 11, ["Direction", "MAC options one by one", "One by one: airtime for all handsets (µs)", "One by one: all handsets together (Mb/s)", "OFDMA: MUACCESS (µs)", "OFDMA: MUGOODPUT (Mb/s)", "OFDMA ÷ one by one"]);
+  // The AP sends downlink packets (its EDCA defaults, as MUACCESS takes); each handset sends its own uplink packet.
+  ([["down", "AP"], ["up", ""]] as const).forEach(([direction, options], i) => {
+    const r = 12 + i;
+    put(ws, `A${r}`, direction);
+    if (options) put(ws, `B${r}`, options);
+    put(ws, `C${r}`, f(`$B$7*AIRTALLY.ACCESS($B$5,$B$6,1,"VO",,B${r})`), "0.0");
+    put(ws, `D${r}`, f(`AIRTALLY.GOODPUT($B$5,$B$6,1,"VO",,,B${r})`), "0.00");
+    put(ws, `E${r}`, f(`AIRTALLY.MUACCESS($B$9,$B$7,$B$6,A${r},1,"VO")`), "0.0");
+    put(ws, `F${r}`, f(`AIRTALLY.MUGOODPUT($B$9,$B$7,$B$6,A${r},1,"VO")`), "0.00");
+    put(ws, `G${r}`, f(`F${r}/D${r}`), "0.0");
+  });
+  header(ws, 15, ["One uplink exchange, term by term (MUBREAKDOWN)", ""]);
+  put(ws, "A16", f('AIRTALLY.MUBREAKDOWN(B9,B7,B6,"up",1,"VO")'));
+  const caution = 30;
+  ws.mergeCells(`A${caution}:G${caution + 2}`);
+  const c = put(ws, `A${caution}`, OFDMA_CAUTION);
+  c.alignment = { wrapText: true, vertical: "top" };
+  c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
+  widths(ws, [62, 26, 22, 22, 18, 18, 14]);
+}
+
 /** The demo workbook, recalculated with the given add-in build. */
 export async function buildDemo(functions: Map<string, AirtallyFunction>): Promise<ExcelJS.Workbook> {
   const wb = new ExcelJS.Workbook();
@@ -271,6 +329,7 @@ export async function buildDemo(functions: Map<string, AirtallyFunction>): Promi
   budgetSheet(wb);
   quoteSheet(wb);
   auditSheet(wb);
+  ofdmaSheet(wb);
   const result = recalc(bookFromExcel(wb), functions);
   if (result.errors.length || result.cycles.length) {
     const list = result.errors.map((e) => `${e.sheet}!${e.address} ${JSON.stringify(e.value)}`).join("\n");

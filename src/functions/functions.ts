@@ -12,6 +12,7 @@ import * as mac from "../core/mac/index";
 import * as contention from "../core/contention/index";
 import * as rf from "../core/rf/index";
 import * as budget from "../core/budget/index";
+import * as mu from "../core/mu/index";
 import { breakdownTable, edcaMixTable } from "../core/audit";
 import { arrayCell, numberCell, textCell } from "./errors";
 
@@ -659,4 +660,102 @@ export function breakdown(
   mac_options?: string,
 ): any[][] {
   return arrayCell(() => breakdownTable(link, packet_bytes, mpdus, access, protection, mac_options));
+}
+
+// ---------------------------------------------------------------- Multi-user (HE/EHT OFDMA)
+
+/**
+ * Direction of a multi-user exchange.
+ * @customenum {string}
+ */
+enum MuDirection {
+  /** AP to stations: MU PPDU, acknowledgements in a TB PPDU */
+  down = "down",
+  /** Stations to AP: Trigger, TB PPDU, Multi-STA BlockAck */
+  up = "up",
+}
+
+/**
+ * Airtime of one HE/EHT multi-user OFDMA exchange serving several stations at once, each on the link's resource unit.
+ * @customfunction MUACCESS
+ * @param link Link text of every user, with its RU, e.g. "HE MCS7 1SS 20MHz RU26 5GHz"; no RU = the whole channel, one user (text)
+ * @param users Stations served in the exchange (count), 1 to the RUs of that size in the channel (9 × RU26 in 20 MHz, 37 in 80 MHz)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [direction] down (AP to stations, default) or up (stations to AP)
+ * @param [mpdus] MPDUs per user (count) or "auto" (default: as many as every limit allows)
+ * @param [access] Access category BK, BE, VI or VO; default BE
+ * @param [mac_options] MAC settings text; MUBAR asks the downlink acknowledgements with a MU-BAR trigger
+ * @returns Airtime of one multi-user exchange (µs)
+ * @example =AIRTALLY.MUACCESS("HE MCS7 1SS 20MHz RU26 5GHz", 9, 100, "down", 1)
+ * @example =AIRTALLY.MUACCESS("HE MCS7 1SS 20MHz RU26 GI1.6 5GHz", 9, 100, "up", 1)
+ * @remarks down: AIFS + mean backoff + HE/EHT MU PPDU carrying each user's A-MPDU with a Basic Trigger (HE-SIG-B/EHT-SIG with one user field per user) + SIFS + the users' BlockAcks in a TB PPDU; with MUBAR, a MU-BAR trigger at the control rate and SIFS before that TB PPDU. up: AIFS + mean backoff + Basic Trigger at the control rate + SIFS + TB PPDU (HE-STF 8 µs, no HE-SIG-B, length from the trigger's UL Length) + SIFS + Multi-STA BlockAck. IEEE Std 802.11ax-2021 27.4.3 (TXTIME), 27.3.11.5 (L-SIG length), 9.3.1.22 (Trigger frame), 9.3.1.8 (BlockAck variants); IEEE Std 802.11be-2024 Clause 36. Scheduling assumptions: every user has data; equal users on equal RUs; no MU-MIMO; no random access (UORA); the AP wins the channel under its own EDCA parameters. Up needs a TB PPDU guard interval: GI1.6 (2x LTF) or GI3.2 (4x LTF).
+ * @caution Planning estimate only: real schedulers differ from these assumptions; measurements and a site survey decide.
+ * @helpurl https://localhost:3000/help/muaccess.html
+ */
+export function muaccess(
+  link: string,
+  users: number,
+  packet_bytes: number,
+  direction?: MuDirection,
+  mpdus?: any,
+  access?: AccessCategory,
+  mac_options?: string,
+): number {
+  return numberCell(() => mu.muAccessUs(link, users, packet_bytes, direction, mpdus, access, mac_options));
+}
+
+/**
+ * Packet-layer goodput of all the stations of one multi-user OFDMA exchange together, alone on the channel.
+ * @customfunction MUGOODPUT
+ * @param link Link text of every user, with its RU (text)
+ * @param users Stations served in the exchange (count)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [direction] down (AP to stations, default) or up (stations to AP)
+ * @param [mpdus] MPDUs per user (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI or VO; default BE
+ * @param [mac_options] MAC settings text (MUBAR, BA=n, cipher…)
+ * @returns Goodput of the packet bytes of all users together (Mb/s)
+ * @example =AIRTALLY.MUGOODPUT("HE MCS7 1SS 20MHz RU26 5GHz", 9, 100, "down", 1)
+ * @remarks users × MPDUs per user × packet bits ÷ MUACCESS, no loss. Compare with the same stations served one by one: GOODPUT of the whole-channel link is their aggregate then. Same scheduling assumptions as MUACCESS (every user has data; equal RUs; no MU-MIMO; no UORA).
+ * @caution Planning estimate only: real schedulers differ from these assumptions; measurements and a site survey decide.
+ * @helpurl https://localhost:3000/help/mugoodput.html
+ */
+export function mugoodput(
+  link: string,
+  users: number,
+  packet_bytes: number,
+  direction?: MuDirection,
+  mpdus?: any,
+  access?: AccessCategory,
+  mac_options?: string,
+): number {
+  return numberCell(() => mu.muGoodputMbps(link, users, packet_bytes, direction, mpdus, access, mac_options));
+}
+
+/**
+ * The terms of one multi-user OFDMA exchange and their airtime, for auditing; spills two columns, total last.
+ * @customfunction MUBREAKDOWN
+ * @param link Link text of every user, with its RU (text)
+ * @param users Stations served in the exchange (count)
+ * @param packet_bytes Network-layer packet (bytes)
+ * @param [direction] down (AP to stations, default) or up (stations to AP)
+ * @param [mpdus] MPDUs per user (count) or "auto" (default)
+ * @param [access] Access category BK, BE, VI or VO; default BE
+ * @param [mac_options] MAC settings text (MUBAR, BA=n, cipher…)
+ * @returns Two columns: term and its airtime (µs); the last row is the total, equal to MUACCESS
+ * @example =AIRTALLY.MUBREAKDOWN("HE MCS7 1SS 20MHz RU26 GI1.6 5GHz", 9, 100, "up", 1)
+ * @remarks Same terms as MUACCESS, with each frame's size and rate in its label. Scheduling assumptions: every user has data; equal RUs; no MU-MIMO; no UORA.
+ * @caution Planning estimate only: real schedulers differ from these assumptions; measurements and a site survey decide.
+ * @helpurl https://localhost:3000/help/mubreakdown.html
+ */
+export function mubreakdown(
+  link: string,
+  users: number,
+  packet_bytes: number,
+  direction?: MuDirection,
+  mpdus?: any,
+  access?: AccessCategory,
+  mac_options?: string,
+): any[][] {
+  return arrayCell(() => mu.muBreakdownTable(link, users, packet_bytes, direction, mpdus, access, mac_options));
 }

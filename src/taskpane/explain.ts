@@ -1,11 +1,12 @@
 /**
  * "Explain this cell": for an AIRTALLY call, the inputs it used (literal or
  * read from cells) and its breakdown — the audit table computed by the core
- * for the same arguments (BREAKDOWN for airtime functions, TXTIMEPARTS for
- * TXTIME, the link's canonical form, rate and sensitivity for PHY lookups).
+ * for the same arguments (BREAKDOWN for airtime functions, MUBREAKDOWN for
+ * the multi-user ones, TXTIMEPARTS for TXTIME, the link's canonical form,
+ * rate and sensitivity for PHY lookups).
  * Pure: the Office glue reads the referenced cells and passes their values.
  */
-import { breakdownTable, edcaMixTable, txtimeTable, rateMbps, sensitivityDbm, phy, AirtallyError } from "../core/index";
+import { breakdownTable, edcaMixTable, txtimeTable, rateMbps, sensitivityDbm, phy, mu, AirtallyError } from "../core/index";
 import { classify, findCall, type Argument, type Call } from "./formula";
 import type { FunctionMetadata } from "./reference";
 
@@ -71,6 +72,13 @@ function breakdownFor(id: string, a: Args): { title: string; table: Table } | nu
     case "AGGCOUNT":
     case "CLIENTSHARE":
       return { title: "One channel access (BREAKDOWN)", table: access() };
+    case "MUACCESS":
+    case "MUGOODPUT":
+    case "MUBREAKDOWN":
+      return {
+        title: "One multi-user exchange (MUBREAKDOWN)",
+        table: mu.muBreakdownTable(a.link, a.users, a.packet_bytes, a.direction, a.mpdus, a.access, a.mac_options),
+      };
     case "EDCAMIX":
       return { title: "Classes sharing the channel (EDCAMIX)", table: edcaMixTable(a.link, a.access_list, a.counts, a.packet_bytes, a.mpdus, a.protection, a.mac_options) };
     case "RATE":

@@ -8,6 +8,7 @@ import * as mac from "../../src/core/mac/index";
 import * as contention from "../../src/core/contention/index";
 import * as rf from "../../src/core/rf/index";
 import * as budget from "../../src/core/budget/index";
+import * as mu from "../../src/core/mu/index";
 
 export interface Sample {
   readonly args: unknown[];
@@ -98,4 +99,13 @@ export const SAMPLES: Record<string, Sample[]> = {
   ],
   RADIOS: [{ args: [2.3, null, null], expected: () => budget.radios(2.3) }],
   BREAKDOWN: [{ args: ["ERP-OFDM 54Mbps", 1500, null, null, null, null], expected: () => core.breakdownTable("ERP-OFDM 54Mbps", 1500) }],
+  MUACCESS: [
+    { args: ["HE MCS7 1SS 20MHz RU26", 9, 100, null, null, null, null], expected: () => mu.muAccessUs("HE MCS7 1SS 20MHz RU26", 9, 100) },
+    { args: ["HE MCS7 1SS 20MHz RU26 GI1.6", 9, 100, "up", 1, "VO", null], expected: () => mu.muAccessUs("HE MCS7 1SS 20MHz RU26 GI1.6", 9, 100, "up", 1, "VO") },
+    { args: ["EHT MCS9 2SS 80MHz RU242", 4, 1500, "down", "auto", "BE", "MUBAR"], expected: () => mu.muAccessUs("EHT MCS9 2SS 80MHz RU242", 4, 1500, "down", "auto", "BE", "MUBAR") },
+  ],
+  MUGOODPUT: [{ args: ["HE MCS7 1SS 20MHz RU26", 9, 100, "down", 1, null, null], expected: () => mu.muGoodputMbps("HE MCS7 1SS 20MHz RU26", 9, 100, "down", 1) }],
+  MUBREAKDOWN: [
+    { args: ["HE MCS7 1SS 20MHz RU26 GI1.6", 9, 100, "up", 1, null, null], expected: () => mu.muBreakdownTable("HE MCS7 1SS 20MHz RU26 GI1.6", 9, 100, "up", 1) },
+  ],
 };

@@ -10,7 +10,7 @@ import * as core from "../../src/core/index";
 import { loadAirtally } from "../../src/cli/bundle";
 import { recalc, type RecalcResult, type Value } from "../../src/cli/engine";
 import { bookFromExcel } from "../../src/cli/xlsx";
-import { buildDemo, BUDGET_FIRST_ZONE_ROW, CLIENT_CLASSES, DEMO_FILE, QUOTE_CAUTION, QUOTE_ITEMS, RF_CAUTION, ZONES } from "../../scripts/make-demo";
+import { buildDemo, BUDGET_FIRST_ZONE_ROW, CLIENT_CLASSES, DEMO_FILE, OFDMA_CAUTION, OFDMA_GI_US, OFDMA_HANDSETS, OFDMA_PACKET_BYTES, OFDMA_RU, QUOTE_CAUTION, QUOTE_ITEMS, RF_CAUTION, ZONES } from "../../scripts/make-demo";
 
 const functions = loadAirtally();
 
@@ -115,6 +115,26 @@ describe("the demo, recalculated, equals the core called directly", () => {
   it("spills BREAKDOWN with ACCESS's total last", () => {
     const spill = result.spills.find((s) => s.sheet === "Audit" && s.anchor.col === 1)!;
     expect(num("Audit", `B${spill.area.bottom}`)).toBeCloseTo(core.mac.channelAccess(links[1], 1500).totalUs, 9);
+  });
+
+  describe("the OFDMA sheet: the staff handsets one by one against one multi-user exchange", () => {
+    const [, family, mcs, ss, width, , band] = CLIENT_CLASSES[0];
+    const ruLink = () => core.buildLink(family, mcs, ss, width, OFDMA_GI_US, band, OFDMA_RU).text;
+    const rows: [number, "down" | "up", string | null][] = [
+      [12, "down", "AP"],
+      [13, "up", null],
+    ];
+    it.each(rows)("row %i (%s): users × ACCESS and GOODPUT one by one, MUACCESS and MUGOODPUT with OFDMA", (r, direction, options) => {
+      expect(num("OFDMA", `C${r}`)).toBeCloseTo(OFDMA_HANDSETS * core.mac.channelAccess(links[0], OFDMA_PACKET_BYTES, 1, "VO", null, options).totalUs, 9);
+      expect(num("OFDMA", `D${r}`)).toBeCloseTo(core.mac.goodputMbps(links[0], OFDMA_PACKET_BYTES, 1, "VO", null, null, options), 9);
+      expect(num("OFDMA", `E${r}`)).toBeCloseTo(core.mu.muAccessUs(ruLink(), OFDMA_HANDSETS, OFDMA_PACKET_BYTES, direction, 1, "VO"), 9);
+      expect(num("OFDMA", `F${r}`)).toBeCloseTo(core.mu.muGoodputMbps(ruLink(), OFDMA_HANDSETS, OFDMA_PACKET_BYTES, direction, 1, "VO"), 9);
+    });
+    it("spills MUBREAKDOWN of the uplink exchange with MUACCESS last, and carries the planning caution", () => {
+      const spill = result.spills.find((s) => s.sheet === "OFDMA")!;
+      expect(num("OFDMA", `B${spill.area.bottom}`)).toBe(num("OFDMA", "E13"));
+      expect(result.sheets.find((s) => s.name === "OFDMA")!.cells.some((c) => c.value === OFDMA_CAUTION)).toBe(true);
+    });
   });
 
   it("spills TXTIMEPARTS of the MPDU with TXTIME last", () => {

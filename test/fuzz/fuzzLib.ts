@@ -286,6 +286,8 @@ function enumerateLinks(): ValidLink[] {
 export const VALID_LINKS: readonly ValidLink[] = enumerateLinks();
 export const validLink: fc.Arbitrary<ValidLink> = VALID_LINKS.length > 0 ? fc.constantFrom(...VALID_LINKS) : fc.constant(undefined as unknown as ValidLink);
 export const validLinkText: fc.Arbitrary<string> = validLink.map((l) => l.text);
+/** The HE and EHT links of the pool: the ones a multi-user exchange accepts. */
+const MU_LINKS: readonly ValidLink[] = VALID_LINKS.filter((l) => l.family === "HE" || l.family === "EHT");
 
 // ---------------------------------------------------------------------------
 // Near-miss link text, built from valid canonical links
@@ -388,7 +390,7 @@ export const nearMissLinkText: fc.Arbitrary<string> = fc
 
 const access = fc.constantFrom("BK", "BE", "VI", "VO", "DCF", "be", " vo ");
 const protection = fc.constantFrom("none", "RTS", "CTS", "rts", "None");
-const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4");
+const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4", "MUBAR");
 const macOptions = fc.array(macOption, { maxLength: 4 }).map((xs) => [...new Set(xs)].join(" "));
 const share = fc.double({ min: 0, max: 1, noNaN: true });
 
@@ -443,6 +445,9 @@ const PLAUSIBLE: Record<string, fc.Arbitrary<unknown>> = {
   area_m2: fc.double({ min: 1, max: 100000, noNaN: true }),
   reach_m: fc.double({ min: 1, max: 100, noNaN: true }),
   overlap_share: fc.double({ min: 0, max: 0.5, noNaN: true }),
+  // Multi-user exchanges: mostly counts that fit some RU plan (9 × RU26 in 20 MHz … 148 in 320 MHz), some past every plan.
+  users: fc.oneof({ weight: 3, arbitrary: fc.constant(1) }, { weight: 4, arbitrary: fc.integer({ min: 1, max: 9 }) }, { weight: 1, arbitrary: fc.integer({ min: 1, max: 160 }) }),
+  direction: fc.constantFrom("down", "up", "DL", "UL", " Up "),
 };
 
 /** A plausible value for a parameter: by name if known, else by declared type and dimensionality. */
@@ -520,6 +525,21 @@ function joint(fn: FunctionMeta): fc.Arbitrary<(args: unknown[]) => unknown[]> |
         out[at("links")] = rows.map(([l]) => [l]);
         out[at("counts")] = rows.map(([, n]) => [n]);
         out[at("demands_mbps")] = rows.map(([, , d]) => [d]);
+        return out;
+      });
+  }
+  if (has("link", "users") && MU_LINKS.length > 0) {
+    // Multi-user exchanges: an HE or EHT link; one user on the whole channel, on an RU a count that most RU plans hold
+    // (the 9 × RU26 of 20 MHz at most), and a few MPDUs per user so the exchange fits its limits.
+    const users = fc.oneof(fc.constant(1), fc.integer({ min: 1, max: 2 }), fc.integer({ min: 1, max: 9 }));
+    return fc
+      .tuple(fc.constantFrom(...MU_LINKS), users, fc.oneof(fc.constant("auto"), fc.integer({ min: 1, max: 16 })), fc.constantFrom("down", "up"))
+      .map(([l, u, m, d]) => (args: unknown[]) => {
+        const out = [...args];
+        out[at("link")] = l.text;
+        out[at("users")] = l.options !== null && /^RU/.test(l.options) ? u : 1;
+        if (at("mpdus") >= 0) out[at("mpdus")] = m;
+        if (at("direction") >= 0) out[at("direction")] = d;
         return out;
       });
   }

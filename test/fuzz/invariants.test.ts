@@ -13,7 +13,9 @@
  *     sets, Table 17-4).
  *   - GOODPUT ≤ RATE, EFFICIENCY = GOODPUT ÷ RATE in [0, 1], SATURATE ≤ RATE.
  *   - a result the catalog calls a "share 0..1" is in [0, 1].
- *   - spills are rectangular and their total rows equal the function they audit.
+ *   - spills are rectangular and their total rows equal the function they audit
+ *     (BREAKDOWN = ACCESS, MUBREAKDOWN = MUACCESS).
+ *   - MUGOODPUT ≤ users × RATE (no RU carries more than its data rate).
  *
  * A property whose functions are not registered yet is skipped with a test
  * name that says so.
@@ -181,6 +183,22 @@ describe("MAC and contention invariants", () => {
         if (g === undefined) return VACUOUS;
         const r = num("RATE", [named(fn, args).link]);
         if (r === undefined || !(g >= 0 && g <= r)) throw new Error(`GOODPUT = ${g}, RATE = ${r} for ${JSON.stringify(args)}`);
+        return true;
+      },
+      200,
+    );
+  });
+
+  itIfRegistered(["MUGOODPUT", "RATE"], "MUGOODPUT ≤ users × RATE (each user's RU carries at most its own data rate)", () => {
+    const fn = meta("MUGOODPUT")!;
+    holds(
+      plausibleArgsFor(fn),
+      (args) => {
+        const g = num("MUGOODPUT", args);
+        if (g === undefined) return VACUOUS;
+        const a = named(fn, args);
+        const r = num("RATE", [a.link]);
+        if (r === undefined || !(g > 0 && g <= (a.users as number) * r)) throw new Error(`MUGOODPUT = ${g}, RATE = ${r} for ${JSON.stringify(args)}`);
         return true;
       },
       200,
@@ -391,6 +409,24 @@ describe("spills", () => {
         const t = num("TXTIME", [l.text, n]);
         if (rows === undefined || t === undefined) return (rows === undefined) === (t === undefined) ? VACUOUS : false;
         return rows[rows.length - 1][1] === t;
+      },
+      150,
+    );
+  });
+
+  itIfRegistered(["MUBREAKDOWN", "MUACCESS", "MUGOODPUT"], "MUBREAKDOWN's terms add up to its last row, which is MUACCESS; MUGOODPUT is the users' packet bits over it", () => {
+    const fn = meta("MUBREAKDOWN")!;
+    holds(
+      plausibleArgsFor(fn),
+      (args) => {
+        const rows = matrix("MUBREAKDOWN", args);
+        const a = num("MUACCESS", args);
+        const g = num("MUGOODPUT", args);
+        if (rows === undefined || a === undefined || g === undefined) return rows === undefined && a === undefined && g === undefined ? VACUOUS : false;
+        const total = rows[rows.length - 1][1] as number;
+        const sum = rows.slice(0, -1).reduce((s, r) => s + (r[1] as number), 0);
+        if (!close(total, a) || !close(sum, total)) throw new Error(`MUBREAKDOWN total ${total}, sum of parts ${sum}, MUACCESS ${a} for ${JSON.stringify(args)}`);
+        return g > 0 && g * a >= 8 * (named(fn, args).users as number) * (named(fn, args).packet_bytes as number) * (1 - REL);
       },
       150,
     );

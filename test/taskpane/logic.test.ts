@@ -23,6 +23,12 @@ const METADATA: FunctionMetadata[] = [
   { id: "TXTIME", name: "TXTIME", description: "PPDU duration for a PSDU.", parameters: [{ name: "link" }, { name: "psdu_bytes" }] },
   { id: "RATE", name: "RATE", description: "PHY data rate of a link.", parameters: [{ name: "link" }] },
   { id: "FSPL", name: "FSPL", description: "Free-space path loss (Friis).", parameters: [{ name: "distance_m" }, { name: "freq_mhz" }] },
+  {
+    id: "MUACCESS",
+    name: "MUACCESS",
+    description: "Airtime of one multi-user exchange.",
+    parameters: ["link", "users", "packet_bytes", "direction", "mpdus", "access", "mac_options"].map((name, i) => ({ name, optional: i > 2 })),
+  },
 ];
 
 describe("reference search", () => {
@@ -70,6 +76,12 @@ describe("explain", () => {
   it("shows TXTIME's terms with the standard's total last", () => {
     const x = explain(planExplanation('=AIRTALLY.TXTIME("OFDM 6Mbps 5GHz",100)'), METADATA, new Map());
     expect(x.table![x.table!.length - 1][1]).toBe(TXTIME_OFDM6_100);
+  });
+
+  it("explains MUACCESS with the multi-user exchange's terms (MUBREAKDOWN), total last", () => {
+    const x = explain(planExplanation('=AIRTALLY.MUACCESS("HE MCS7 1SS 20MHz RU26 GI1.6 BCC 5GHz",9,100,"up",1)'), METADATA, new Map());
+    // Hand-derived in test/core/mu/exchange.test.ts: AIFS 43 + backoff 67.5 + Basic Trigger 68 + SIFS 16 + TB PPDU 220 + SIFS 16 + Multi-STA BlockAck 36
+    expect([x.tableTitle, x.table![x.table!.length - 1]]).toEqual(["One multi-user exchange (MUBREAKDOWN)", ["total (µs)", 43 + 67.5 + 68 + 16 + 220 + 16 + 36]]);
   });
 
   it("asks for a cell of its own when an argument is a calculation", () => {

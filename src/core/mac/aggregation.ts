@@ -29,7 +29,7 @@ export interface AggregationLimit {
 }
 
 /** Largest n in [lo, hi] with ok(n), given ok(lo); ok must be monotone (true then false). */
-function largestWhere(lo: number, hi: number, ok: (n: number) => boolean): number {
+export function largestWhere(lo: number, hi: number, ok: (n: number) => boolean): number {
   if (ok(hi)) return hi;
   while (hi - lo > 1) {
     const mid = (lo + hi) >>> 1;

@@ -46,6 +46,8 @@ export interface MacOptions {
   readonly htc: boolean;
   /** Transmission attempts before an MPDU is dropped; null = dot11ShortRetryLimit 7. */
   readonly retryLimit: number | null;
+  /** Multi-user exchanges (src/core/mu): acknowledgements asked by a MU-BAR trigger instead of a trigger carried in the PPDU. */
+  readonly muBar: boolean;
 }
 
 export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
@@ -62,6 +64,7 @@ export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
   basicRatesMbps: null,
   htc: false,
   retryLimit: null,
+  muBar: false,
 });
 
 /** Rates a basic rate set may hold: Clause 15/16 DSSS/HR-DSSS and Clause 17/18 OFDM rates, Mb/s. */
@@ -87,7 +90,7 @@ const AMSDU_MAX = 64;
 const RETRY_MAX = 255;
 
 const VALID_TEXT =
-  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC or RETRY=n";
+  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC, RETRY=n or MUBAR";
 
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
@@ -150,6 +153,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
     }
     if (t === "AP") { setOnce(o, seen, "ap", true, raw); continue; }
     if (t === "HTC") { setOnce(o, seen, "htc", true, raw); continue; }
+    if (t === "MUBAR") { setOnce(o, seen, "muBar", true, raw); continue; }
     const m = t.match(/^([A-Z]+)=(.*)$/);
     if (!m) invalid(`mac_options: unknown setting "${raw}"; ${VALID_TEXT}`);
     const [, key, value] = m;

@@ -78,12 +78,12 @@ export const T_EHT_STF_NT_us: Microseconds = T_HE_STF_NT_us;
  * - user field (non-MU-MIMO): STA-ID 11, MCS 4, reserved 1, NSS 4,
  *   Beamformed 1, Coding 1 = 22 bits.
  */
-const EHT_SIG_USIG_OVERFLOW_bits = 17;
+export const EHT_SIG_USIG_OVERFLOW_bits = 17;
 const EHT_SIG_NON_OFDMA_USERS_bits = 3;
-const EHT_SIG_RU_ALLOCATION_bits = 9;
-const EHT_SIG_USER_FIELD_bits = 22;
+export const EHT_SIG_RU_ALLOCATION_bits = 9;
+export const EHT_SIG_USER_FIELD_bits = 22;
 /** RU Allocation subfields per content channel in the first and second encoding blocks. */
-const EHT_SIG_RU_ALLOCATIONS: Readonly<Record<number, readonly [number, number]>> = {
+export const EHT_SIG_RU_ALLOCATIONS: Readonly<Record<number, readonly [number, number]>> = {
   20: [1, 0],
   40: [1, 0],
   80: [2, 0],
@@ -91,7 +91,7 @@ const EHT_SIG_RU_ALLOCATIONS: Readonly<Record<number, readonly [number, number]>
   320: [2, 6],
 };
 
-const BLOCK_END_bits = SIG_CRC_bits + SIG_TAIL_bits;
+export const BLOCK_END_bits = SIG_CRC_bits + SIG_TAIL_bits;
 
 /**
  * EHT-SIG symbols for one user at EHT-SIG MCS0 (26 bits per symbol per

@@ -373,9 +373,9 @@ export const SIG_CRC_bits = 4;
 export const SIG_TAIL_bits = 6;
 
 /** HE-SIG-B RU Allocation subfields per content channel (27.3.11.8.2): 1 at 20/40 MHz, 2 at 80, 4 at 160. */
-const HE_SIG_B_RU_ALLOCATIONS: Readonly<Record<number, number>> = { 20: 1, 40: 1, 80: 2, 160: 4 };
+export const HE_SIG_B_RU_ALLOCATIONS: Readonly<Record<number, number>> = { 20: 1, 40: 1, 80: 2, 160: 4 };
 /** One RU Allocation subfield, 8 bits; the Center 26-tone RU bit at 80 and 160 MHz (27.3.11.8.2). */
-const HE_SIG_B_RU_ALLOCATION_bits = 8;
+export const HE_SIG_B_RU_ALLOCATION_bits = 8;
 /** HE-SIG-B user field for a non-MU-MIMO allocation, 21 bits (27.3.11.8.3: STA-ID 11, NSTS 3, Beamformed 1, MCS 4, DCM 1, Coding 1). */
 export const HE_SIG_B_USER_FIELD_bits = 21;
 

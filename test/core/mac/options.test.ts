@@ -18,6 +18,10 @@ describe("mac_options parsing (DESIGN.md §2)", () => {
     const o = parseMacOptions("BA=32 AMPDU=2 AIFSN=4 CWMIN=7 CWMAX=255 RETRY=4");
     expect([o.baWindow, o.ampduExponent, o.aifsn, o.cwMin, o.cwMax, o.retryLimit]).toEqual([32, 2, 4, 7, 255, 4]);
   });
+  it("reads MUBAR (multi-user acknowledgements asked by a MU-BAR trigger, DESIGN.md §2), once only", () => {
+    expect([DEFAULT_MAC_OPTIONS.muBar, parseMacOptions("mubar GCMP-256").muBar]).toEqual([false, true]);
+    expectValueError(() => parseMacOptions("MUBAR MUBAR"), /^mac_options: "MUBAR" repeats/);
+  });
   it("refuses an unknown setting and lists the valid ones", () => {
     expectValueError(() => parseMacOptions("WEP"), /^mac_options: unknown setting "WEP"; use CCMP-128/);
   });
