@@ -434,6 +434,9 @@ const PLAUSIBLE: Record<string, fc.Arbitrary<unknown>> = {
   demand_mbps: fc.double({ min: 0, max: 100, noNaN: true }),
   links: validLinkText.map((t) => [[t]]),
   demands_mbps: fc.double({ min: 0, max: 50, noNaN: true }).map((d) => [[d]]),
+  accesses: access.map((a) => [[a]]),
+  walls: fc.integer({ min: 0, max: 20 }),
+  wall_loss_db: fc.double({ min: 0, max: 20, noNaN: true }),
   total_share: fc.double({ min: 0, max: 20, noNaN: true }),
   max_utilization: fc.double({ min: 0.1, max: 1, noNaN: true }),
   overhead_share: fc.double({ min: 0, max: 0.09, noNaN: true }),
@@ -513,13 +516,21 @@ function joint(fn: FunctionMeta): fc.Arbitrary<(args: unknown[]) => unknown[]> |
       });
   }
   if (has("links", "counts", "demands_mbps")) {
+    // accesses and mpdus (MIXSHARE), when declared, are ranges parallel to links.
+    const classAccess = fc.constantFrom("BK", "BE", "VI", "VO", "DCF", null);
+    const classMpdus = fc.constantFrom("auto", 1, null);
     return fc
-      .array(fc.tuple(validLinkText, fc.integer({ min: 0, max: 50 }), fc.double({ min: 0, max: 20, noNaN: true })), { minLength: 1, maxLength: 4 })
+      .array(fc.tuple(validLinkText, fc.integer({ min: 0, max: 50 }), fc.double({ min: 0, max: 20, noNaN: true }), classAccess, classMpdus), {
+        minLength: 1,
+        maxLength: 4,
+      })
       .map((rows) => (args: unknown[]) => {
         const out = [...args];
         out[at("links")] = rows.map(([l]) => [l]);
         out[at("counts")] = rows.map(([, n]) => [n]);
         out[at("demands_mbps")] = rows.map(([, , d]) => [d]);
+        if (at("accesses") >= 0) out[at("accesses")] = rows.map(([, , , a]) => [a]);
+        if (at("mpdus") >= 0) out[at("mpdus")] = rows.map(([, , , , m]) => [m]);
         return out;
       });
   }
