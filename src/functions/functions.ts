@@ -269,6 +269,7 @@ export function access(
  * @example =AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz", 1500)
  * @example =AIRTALLY.GOODPUT("VHT MCS9 2SS 80MHz", 1500, "auto", "BE", "none", 0.1)
  * @remarks Packet bits per access ÷ ACCESS. With block ack, lost MPDUs ride in later A-MPDUs, so (1 − p) of the MPDU slots carry new data; without A-MPDU the whole frame is sent again until acknowledged.
+ * @remarks TCP in mac_options: the receiver's TCP acknowledgements (40-byte IP packets, one per TCPACK=n segments, default 2 — delayed ACKs, RFC 1122 4.2.3.2 and RFC 5681 4.2) each take a channel access of their own on the reverse link (same link and access category, no protection, one MPDU): goodput = 1 ÷ (1 ÷ G + ACCESS(ACK) ÷ (8 × packet_bytes × n)), G the goodput without them.
  * @helpurl https://localhost:3000/help/goodput.html
  */
 export function goodput(
@@ -360,6 +361,7 @@ export function collide(stations: number, cwmin?: number, cwmax?: number, retry_
  * @example =AIRTALLY.SATURATE("OFDM 54Mbps 5GHz", 10, 1500)
  * @example =AIRTALLY.SATURATE("HE MCS7 1SS 20MHz", 20, 1500, "auto", "BE", "RTS")
  * @remarks Bianchi's saturation model (IEEE JSAC 18(3), 2000) with EDCA timing: AIFS in place of DIFS, success and collision times from one channel access (ACCESS) with aggregation and protection.
+ * @remarks TCP in mac_options: the receivers' TCP acknowledgements (one 40-byte packet per TCPACK=n segments, default 2) add their own uncontended channel accesses after the saturated data (as in GOODPUT); the collisions they would add are not counted, so the result is an upper bound.
  * @helpurl https://localhost:3000/help/saturate.html
  */
 export function saturate(
@@ -371,7 +373,7 @@ export function saturate(
   protection?: ProtectionMode,
   mac_options?: string,
 ): number {
-  return numberCell(() => contention.saturationGoodputMbps(link, stations, packet_bytes, mpdus, access, protection, mac_options));
+  return numberCell(() => budget.saturationGoodputTcpMbps(link, stations, packet_bytes, mpdus, access, protection, mac_options));
 }
 
 /**
@@ -398,7 +400,7 @@ export function contentionshare(
   protection?: ProtectionMode,
   mac_options?: string,
 ): number {
-  return numberCell(() => contention.contentionShare(link, stations, packet_bytes, mpdus, access, protection, mac_options));
+  return numberCell(() => contention.contentionShare(link, stations, packet_bytes, mpdus, access, protection, budget.dataOnlyMacOptions("CONTENTION", mac_options)));
 }
 
 /**
@@ -425,7 +427,7 @@ export function edcamix(
   protection?: ProtectionMode,
   mac_options?: string,
 ): any[][] {
-  return arrayCell(() => edcaMixTable(link, access_list, counts, packet_bytes, mpdus, protection, mac_options));
+  return arrayCell(() => edcaMixTable(link, access_list, counts, packet_bytes, mpdus, protection, budget.dataOnlyMacOptions("EDCAMIX", mac_options)));
 }
 
 // ---------------------------------------------------------------- RF
@@ -630,7 +632,7 @@ export function clientshare(
  * @param demands_mbps Demand per client (Mb/s, range)
  * @param [packet_bytes] Network-layer packet (bytes), default 1500
  * @param [stations] Contending stations (count), default 1
- * @param [accesses] Access category per class, BK, BE, VI, VO or DCF (range the size of links; blank or omitted: BE)
+ * @param [accesses] Access category per class, BK, BE, VI, VO or DCF, optionally followed by that class's MAC settings such as "BE TCP" (range the size of links; blank or omitted: BE)
  * @param [mpdus] MPDUs per channel access per class, a count or "auto" (range the size of links; blank or omitted: "auto"); 1 for voice
  * @returns Total share of airtime (share; above 1 means more than one channel)
  * @example =AIRTALLY.MIXSHARE({"HE MCS7 2SS 40MHz";"HT MCS4 20MHz 5GHz"}, {20;5}, {2;1})

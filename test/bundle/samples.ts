@@ -52,6 +52,8 @@ export const SAMPLES: Record<string, Sample[]> = {
   GOODPUT: [
     { args: ["OFDM 54Mbps", 1500, null, null, null, null, null], expected: () => mac.goodputMbps("OFDM 54Mbps", 1500) },
     { args: ["VHT MCS9 2SS 80MHz", 1500, 32, "BE", "CTS", 0.1, "open"], expected: () => mac.goodputMbps("VHT MCS9 2SS 80MHz", 1500, 32, "BE", "CTS", 0.1, "open") },
+    // Issue 15: a TCP download, OFDM 54 Mb/s: 2 × 8 × 1500 bits ÷ (2 × 406.5 µs data + 190.5 µs ACK access), hand-derived in test/core/mac/tcp.test.ts.
+    { args: ["OFDM 54Mbps 5GHz", 1500, null, null, null, null, "TCP"], expected: () => expect.closeTo((2 * 8 * 1500) / (2 * 406.5 + 190.5), 10) },
   ],
   EFFICIENCY: [{ args: ["HT MCS7 20MHz", 1500, 1, null, null, null, null], expected: () => mac.efficiency("HT MCS7 20MHz", 1500, 1) }],
   RETX: [
@@ -62,7 +64,10 @@ export const SAMPLES: Record<string, Sample[]> = {
     { args: [10, null, null, null], expected: () => contention.collisionProbability(10) },
     { args: [50, 31, 1023, 4], expected: () => contention.collisionProbability(50, 31, 1023, 4) },
   ],
-  SATURATE: [{ args: ["OFDM 54Mbps", 10, 1500, null, null, null, null], expected: () => contention.saturationGoodputMbps("OFDM 54Mbps", 10, 1500) }],
+  SATURATE: [
+    { args: ["OFDM 54Mbps", 10, 1500, null, null, null, null], expected: () => contention.saturationGoodputMbps("OFDM 54Mbps", 10, 1500) },
+    { args: ["OFDM 54Mbps", 10, 1500, null, null, null, "TCP"], expected: () => budget.saturationGoodputTcpMbps("OFDM 54Mbps", 10, 1500, null, null, null, "TCP") },
+  ],
   CONTENTION: [{ args: ["HE MCS7 20MHz", 20, 1500, "auto", "BE", "RTS", null], expected: () => contention.contentionShare("HE MCS7 20MHz", 20, 1500, "auto", "BE", "RTS") }],
   EDCAMIX: [
     {

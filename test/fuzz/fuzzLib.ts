@@ -388,7 +388,7 @@ export const nearMissLinkText: fc.Arbitrary<string> = fc
 
 const access = fc.constantFrom("BK", "BE", "VI", "VO", "DCF", "be", " vo ");
 const protection = fc.constantFrom("none", "RTS", "CTS", "rts", "None");
-const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4");
+const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4", "TCP", "TCP TCPACK=3");
 const macOptions = fc.array(macOption, { maxLength: 4 }).map((xs) => [...new Set(xs)].join(" "));
 const share = fc.double({ min: 0, max: 1, noNaN: true });
 

@@ -5,8 +5,8 @@
  */
 import { describe, finiteNumber, isMissing } from "../args";
 import { AirtallyError, invalid } from "../errors";
-import { goodputMbps, parseAccess } from "../mac/index";
-import { saturationGoodputMbps } from "../contention/index";
+import { goodputMbps, parseAccess, parseMacOptions } from "../mac/index";
+import { saturationGoodputTcpMbps } from "./tcp";
 import { asLink } from "../phy/index";
 import type { MbPerSecond, Share } from "../units";
 import { atMost, nonNegative, optionalNumber } from "../rf/_lib";
@@ -26,7 +26,8 @@ function readStations(stations: unknown): number {
  * GOODPUT (one station alone, no protection, no loss); with more, SATURATE —
  * the aggregate goodput of `stations` identical saturated stations on that
  * link, i.e. what the channel carries at that link once contention (idle
- * backoff and collisions) is paid. `mpdus` is GOODPUT's: "auto" (the
+ * backoff and collisions) is paid; `TCP` in mac_options adds the receiver's
+ * acknowledgements (src/core/mac/tcp.ts, budget/tcp.ts). `mpdus` is GOODPUT's: "auto" (the
  * aggregation limit) or the MPDUs each access carries — 1 for traffic sent
  * one packet per access (voice), which is then charged a whole access per
  * packet.
@@ -34,7 +35,7 @@ function readStations(stations: unknown): number {
 function channelGoodputMbps(link: unknown, packetBytes: unknown, stations: number, access: unknown, macOptions: unknown, mpdus: unknown): MbPerSecond {
   return stations === 1
     ? goodputMbps(link, packetBytes, mpdus, access, null, null, macOptions)
-    : saturationGoodputMbps(link, stations, packetBytes, mpdus, access, null, macOptions);
+    : saturationGoodputTcpMbps(link, stations, packetBytes, mpdus, access, null, macOptions);
 }
 
 /**
@@ -100,6 +101,7 @@ const ROW_ARGUMENTS: readonly (readonly [string, string])[] = [
   ["link:", "links"],
   ["access:", "accesses"],
   ["mpdus:", "mpdus"],
+  ["mac_options:", "accesses"],
 ];
 
 function forItem<T>(item: number, fn: () => T): T {
@@ -111,6 +113,17 @@ function forItem<T>(item: number, fn: () => T): T {
     if (!row) throw e;
     throw new AirtallyError(e.kind, `${row[1]}: item ${item}: ${e.message}`);
   }
+}
+
+/**
+ * One `accesses` cell: an access category, optionally followed by MAC
+ * settings for that class ("BE TCP", "VO open"), since MIXSHARE has no
+ * mac_options of its own. Blank → BE and no settings.
+ */
+function classAccess(cell: unknown): { access: unknown; macOptions: unknown } {
+  if (typeof cell !== "string") return { access: cell, macOptions: null };
+  const [access, ...settings] = cell.trim().split(/\s+/);
+  return { access, macOptions: settings.length > 0 ? settings.join(" ") : null };
 }
 
 /**
@@ -134,8 +147,9 @@ function perClass(name: string, value: unknown, n: number): unknown[] {
  * client in Mb/s. Counts may be fractional (average active clients).
  *
  * `accesses` and `mpdus` are optional ranges of the same number of cells:
- * each class's access category (default BE) and MPDUs per access (default
- * "auto"; 1 for traffic sent one packet per access, such as voice).
+ * each class's access category (default BE), optionally followed by MAC
+ * settings for the class ("BE TCP"), and MPDUs per access (default "auto";
+ * 1 for traffic sent one packet per access, such as voice).
  *
  * A row whose link cell is blank is skipped when its count and demand are
  * blank or 0 too; a blank link with a count and demand is refused (a client
@@ -164,7 +178,7 @@ export function mixShare(
   if (demandCells.length !== linkCells.length) {
     invalid(`demands_mbps: has ${demandCells.length} cells but links has ${linkCells.length}; the three ranges must have the same number of cells`);
   }
-  const accessCells = perClass("accesses", accesses, linkCells.length);
+  const accessCells = perClass("accesses", accesses, linkCells.length).map(classAccess);
   const mpduCells = perClass("mpdus", mpdus, linkCells.length);
   const nStations = readStations(stations);
   let total = 0;
@@ -177,10 +191,10 @@ export function mixShare(
       continue;
     }
     if (count === 0 || demand === 0) {
-      forItem(item, () => (asLink(linkCells[i]), parseAccess(accessCells[i]))); // still catch a mistyped link or access category
+      forItem(item, () => (asLink(linkCells[i]), parseAccess(accessCells[i].access), parseMacOptions(accessCells[i].macOptions))); // still catch a mistyped link, access or setting
       continue;
     }
-    total += count * forItem(item, () => clientShare(linkCells[i], demand, packetBytes, nStations, accessCells[i], null, mpduCells[i]));
+    total += count * forItem(item, () => clientShare(linkCells[i], demand, packetBytes, nStations, accessCells[i].access, accessCells[i].macOptions, mpduCells[i]));
   }
   return total;
 }
