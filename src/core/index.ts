@@ -15,3 +15,4 @@ export * as mac from "./mac/index";
 export * as contention from "./contention/index";
 export * as rf from "./rf/index";
 export * as budget from "./budget/index";
+export { resolvedDefault, resultChain, type ChainRow } from "./explain";
