@@ -107,6 +107,26 @@ function widths(ws: ExcelJS.Worksheet, w: number[]): void {
 
 const col = (i: number) => String.fromCharCode(65 + i);
 
+/**
+ * Print setup: every sheet one page wide (as many pages tall as it needs),
+ * the Quote on one page. `fitToPage` is the flag that turns on fit-to
+ * (the sheet's sheetPr/pageSetUpPr fitToPage attribute in SpreadsheetML,
+ * ECMA-376 Part 1; section number not given, from memory only); without it
+ * a spreadsheet prints at its scale and ignores fitToWidth/fitToHeight.
+ * fitToHeight 0 means "as many pages tall as needed".
+ */
+function printSetup(ws: ExcelJS.Worksheet, orientation: "portrait" | "landscape", onePage = false): void {
+  ws.pageSetup = {
+    ...ws.pageSetup,
+    orientation,
+    paperSize: 9, // A4
+    fitToPage: true,
+    fitToWidth: 1,
+    fitToHeight: onePage ? 1 : 0,
+    margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 },
+  };
+}
+
 function clientsSheet(wb: ExcelJS.Workbook): void {
   const ws = wb.addWorksheet("Clients");
   title(ws, `Client classes — ${VENUE}`, "One row per kind of client: its PHY link (AIRTALLY.LINK) and the traffic one active client of the class asks for.");
@@ -125,6 +145,7 @@ function clientsSheet(wb: ExcelJS.Workbook): void {
     put(ws, `J${r}`, demand, "0.0");
   });
   widths(ws, [24, 8, 6, 8, 11, 8, 10, 34, 14, 22]);
+  printSetup(ws, "landscape");
 }
 
 function zonesSheet(wb: ExcelJS.Workbook): void {
@@ -145,6 +166,7 @@ function zonesSheet(wb: ExcelJS.Workbook): void {
     put(ws, `${col(3 + classes)}${r}`, f(`MMULT(${first}${r}:${last}${r},Clients!$J$4:$J$${3 + classes})`), "0.0");
   });
   widths(ws, [26, 11, ...CLIENT_CLASSES.map(() => 14), 10, 14, 14]);
+  printSetup(ws, "landscape");
 }
 
 /** Budget rows: the zone table starts here. */
@@ -212,6 +234,7 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
   c.alignment = { wrapText: true, vertical: "top" };
   c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
   widths(ws, [36, 22, 34, 14, 18, 18, 16, 12, 10]);
+  printSetup(ws, "landscape");
 }
 
 /** Quote line items: [item, quantity formula, unit, unit price (invented)]. */
@@ -255,6 +278,7 @@ function quoteSheet(wb: ExcelJS.Workbook): void {
   c.alignment = { wrapText: true, vertical: "top" };
   c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
   widths(ws, [48, 10, 8, 16, 18]);
+  printSetup(ws, "portrait", true);
 }
 
 function auditSheet(wb: ExcelJS.Workbook): void {
@@ -277,6 +301,7 @@ function auditSheet(wb: ExcelJS.Workbook): void {
   put(ws, "D8", f("AIRTALLY.TXTIMEPARTS(B3,B5)"));
   put(ws, "G8", f("AIRTALLY.EDCAMIX(B3,D4:D5,E4:E5,B4)"));
   widths(ws, [40, 12, 4, 30, 12, 4, 18, 12, 14, 14, 14]);
+  printSetup(ws, "landscape");
 }
 
 /** The demo workbook, recalculated with the given add-in build. */
