@@ -49,6 +49,12 @@ export function commonWallLossDb(freqMHz: MHz): Db {
  *   wallsLossDb(5200, 3) → 3 × 4 = 12 dB;   wallsLossDb(2437, 2, 6) → 12 dB
  */
 export function wallsLossDb(freqMHz: MHz, walls: unknown, wallLossDb: unknown): Db {
+  // The common case — no walls given — stays a comparison, so INDOORLOSS without walls costs what it did.
+  if (isMissing(walls) && isMissing(wallLossDb)) return 0;
+  return checkedWallsLossDb(freqMHz, walls, wallLossDb);
+}
+
+function checkedWallsLossDb(freqMHz: MHz, walls: unknown, wallLossDb: unknown): Db {
   const n = atMost("walls", wholeNonNegative("walls", optionalNumber("walls", walls, 0)), MAX_WALLS, "walls");
   const perWall = isMissing(wallLossDb)
     ? n === 0
