@@ -1,5 +1,6 @@
 import { resolvedDefault, resultChain } from "../../src/core/index";
 import { aggCount } from "../../src/core/mac/index";
+import { clientShare, saturationGoodputTcpMbps } from "../../src/core/budget/index";
 
 describe("resolvedDefault (the value an omitted argument takes)", () => {
   it("resolves mpdus auto to AGGCOUNT for the same link and packet", () => {
@@ -31,5 +32,22 @@ describe("resultChain", () => {
   it("ends EFFICIENCY with goodput ÷ rate: (8 × 1500 ÷ 406.5) ÷ 54 (IEEE 802.11-2020 eq. (17-29) access, by hand)", () => {
     const rows = resultChain("EFFICIENCY", { link: "OFDM 54Mbps 5GHz", packet_bytes: 1500 })!;
     expect(rows[rows.length - 1][1]).toBeCloseTo((8 * 1500) / 406.5 / 54, 12);
+  });
+
+  it("reaches SATURATE with TCP through its own steps: the TCP row equals the result", () => {
+    const link = "HE MCS7 2SS 40MHz 5GHz";
+    const rows = resultChain("SATURATE", { link, stations: 10, packet_bytes: 1500, mac_options: "TCP" })!;
+    const result = saturationGoodputTcpMbps(link, 10, 1500, null, null, null, "TCP");
+    expect(rows[rows.length - 1][1]).toBe(result);
+    expect(rows[rows.length - 2][1]).toBeCloseTo(result, 9); // 1 ÷ (1 ÷ S + T_ACK ÷ (8 × 1500 × 2))
+  });
+
+  it("reaches CLIENTSHARE of voice on a contended channel: demand ÷ SATURATE with one MPDU per access", () => {
+    const link = "HE MCS7 2SS 40MHz 5GHz";
+    const rows = resultChain("CLIENTSHARE", { link, demand_mbps: 0.08, packet_bytes: 200, stations: 10, access: "VO", mpdus: 1 })!;
+    expect(rows[rows.length - 1][1]).toBe(clientShare(link, 0.08, 200, 10, "VO", null, 1));
+    // the step before is SATURATE's capacity: share × capacity = demand
+    expect(rows[rows.length - 2][0]).toBe("SATURATE (Mb/s)");
+    expect((rows[rows.length - 1][1] as number) * (rows[rows.length - 2][1] as number)).toBeCloseTo(0.08, 12);
   });
 });
