@@ -191,12 +191,13 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
     ["Centre frequency (MHz)", 5500, "", "0"],
     ["Distance power coefficient N", 30, "ITU-R P.1238 (INDOORLOSS default)", "0"],
     ["Beacon overhead (share of airtime)", f("AIRTALLY.BEACONSHARE(B7,B5,B6)"), "BEACONSHARE, default beacon of a typical 5 GHz AP", "0.0%"],
-    ["Cell reach (m)", f("AIRTALLY.REACH(B10,B13,B14,B15)"), "REACH, no floors between", "0.0"],
+    ["Cell reach (m)", f("AIRTALLY.REACH(B10,B13,B14,B15,0,,0,B23)"), "REACH, no floors, walls from B23", "0.0"],
     ["Airtime one delegate laptop needs", f("AIRTALLY.CLIENTSHARE(Clients!H5,Clients!J5,B8)"), "CLIENTSHARE", "0.00%"],
     ["Voice handset link", f(`AIRTALLY.LINK("${VOICE.family}",${VOICE.mcs},${VOICE.streams},${VOICE.widthMHz})`), "voice calls on handsets"],
     ["Voice flow, one direction (Mb/s)", VOICE.demandMbps, "G.711, 20 ms packets: 50 × 200 bytes a second", "0.00"],
     ["Voice packet (bytes)", VOICE.packetBytes, "160 audio + RTP 12 + UDP 8 + IP 20", "0"],
     ["Airtime one voice flow needs", f("AIRTALLY.CLIENTSHARE(B19,B20,B21,1,\"VO\",,1)"), "CLIENTSHARE on VO, one packet per access (mpdus 1)", "0.00%"],
+    ["Walls to the cell edge", 1, "plasterboard, 4 dB at 5 GHz (common practice; a survey decides)", "0"],
   ];
   rows.forEach(([label, value, note, fmt], i) => {
     const r = 5 + i;

@@ -78,7 +78,8 @@ describe("the demo, recalculated, equals the core called directly", () => {
   const demands = CLIENT_CLASSES.map((c) => c[7]);
   const beacon = () => core.budget.beaconShare("OFDM 6Mbps 5GHz", 3, 2);
   const target = () => core.sensitivityDbm("HE MCS4 2SS 80MHz") + 5;
-  const reach = () => core.rf.reachM(20, target(), 5500, 30);
+  // One plasterboard wall to the cell edge at the default per-wall loss (4 dB at 5 GHz, common practice).
+  const reach = () => core.rf.reachM(20, target(), 5500, 30, 0, null, 0, 1);
   // A voice flow: G.711 in 20 ms packets, 50 × 200 octets a second, one packet per VO access = demand ÷ GOODPUT(link, 200, 1, "VO").
   const voiceFlow = () => (50 * 200 * 8) / 1e6 / core.mac.goodputMbps("HE MCS5 1SS 80MHz", 200, 1, "VO");
   const zoneShare = (i: number) =>
@@ -98,6 +99,8 @@ describe("the demo, recalculated, equals the core called directly", () => {
 
   it("puts REACH at the cell-edge target (sensitivity + 5 dB margin) in the cell reach", () => {
     expect(num("Budget", "B17")).toBeCloseTo(reach(), 9);
+    // the wall costs 4 dB: the reach is 10^(4 ÷ 30) = 1.36 times shorter than without it (P.1238 eq. (1), N = 30)
+    expect(core.rf.reachM(20, target(), 5500, 30) / num("Budget", "B17")).toBeCloseTo(Math.pow(10, 4 / 30), 9);
   });
 
   it("charges a voice flow per packet: demand ÷ GOODPUT(handset link, 200, 1, VO)", () => {
