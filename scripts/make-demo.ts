@@ -92,6 +92,8 @@ function title(ws: ExcelJS.Worksheet, text: string, subtitle: string): void {
 }
 
 function header(ws: ExcelJS.Worksheet, row: number, labels: string[]): void {
+  // Two lines of 11-point text: wrapped labels print whole (a spreadsheet does not grow a row for wrapped text on its own when printing).
+  ws.getRow(row).height = 30;
   labels.forEach((label, i) => {
     const cell = ws.getCell(row, i + 1);
     cell.value = label;
