@@ -58,13 +58,23 @@ export const CLIENT_CLASSES: [string, string, number, number, number, number | n
   ["Badge reader", "HT", 3, 1, 20, null, 5, 0.2],
 ];
 
-/** Zones: [zone, area m², active clients per class (same order as CLIENT_CLASSES)]. */
-export const ZONES: [string, number, number[]][] = [
-  ["Great Hall", 1800, [160, 220, 60, 2, 40]],
-  ["Breakout suites", 900, [40, 120, 30, 0, 10]],
-  ["Atrium and registration", 650, [30, 60, 10, 0, 25]],
-  ["Speakers' lounge", 150, [5, 15, 5, 1, 2]],
+/** Zones: [zone, area m², active clients per class (same order as CLIENT_CLASSES), voice calls on handsets at once]. */
+export const ZONES: [string, number, number[], number][] = [
+  ["Great Hall", 1800, [160, 220, 60, 2, 40], 6],
+  ["Breakout suites", 900, [40, 120, 30, 0, 10], 4],
+  ["Atrium and registration", 650, [30, 60, 10, 0, 25], 8],
+  ["Speakers' lounge", 150, [5, 15, 5, 1, 2], 2],
 ];
+
+/**
+ * The voice class: a handset call sent one packet per AC_VO access (no
+ * aggregation), charged per packet by CLIENTSHARE's mpdus = 1. ITU-T G.711
+ * (64 kb/s) in 20 ms packets (RFC 3551 §4.5's default packetization for
+ * PCMU): 160 octets of audio + RTP 12 + UDP 8 + IPv4 20 = 200-octet IP
+ * packets, 50 a second = 0.08 Mb/s in each direction; a call is one such
+ * flow down (AP to handset) and one up, each its own accesses.
+ */
+export const VOICE = { family: "HE", mcs: 5, streams: 1, widthMHz: 80, packetBytes: 200, demandMbps: (200 * 8 * 50) / 1e6, flowsPerCall: 2 };
 
 const TEAL = "FF234E52";
 const SAND = "FFF6F4EE";
@@ -82,6 +92,8 @@ function title(ws: ExcelJS.Worksheet, text: string, subtitle: string): void {
 }
 
 function header(ws: ExcelJS.Worksheet, row: number, labels: string[]): void {
+  // Two lines of 11-point text: wrapped labels print whole (a spreadsheet does not grow a row for wrapped text on its own when printing).
+  ws.getRow(row).height = 30;
   labels.forEach((label, i) => {
     const cell = ws.getCell(row, i + 1);
     cell.value = label;
@@ -96,6 +108,26 @@ function widths(ws: ExcelJS.Worksheet, w: number[]): void {
 }
 
 const col = (i: number) => String.fromCharCode(65 + i);
+
+/**
+ * Print setup: every sheet one page wide (as many pages tall as it needs),
+ * the Quote on one page. `fitToPage` is the flag that turns on fit-to
+ * (the sheet's sheetPr/pageSetUpPr fitToPage attribute in SpreadsheetML,
+ * ECMA-376 Part 1; section number not given, from memory only); without it
+ * a spreadsheet prints at its scale and ignores fitToWidth/fitToHeight.
+ * fitToHeight 0 means "as many pages tall as needed".
+ */
+function printSetup(ws: ExcelJS.Worksheet, orientation: "portrait" | "landscape", onePage = false): void {
+  ws.pageSetup = {
+    ...ws.pageSetup,
+    orientation,
+    paperSize: 9, // A4
+    fitToPage: true,
+    fitToWidth: 1,
+    fitToHeight: onePage ? 1 : 0,
+    margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 },
+  };
+}
 
 function clientsSheet(wb: ExcelJS.Workbook): void {
   const ws = wb.addWorksheet("Clients");
@@ -115,29 +147,34 @@ function clientsSheet(wb: ExcelJS.Workbook): void {
     put(ws, `J${r}`, demand, "0.0");
   });
   widths(ws, [24, 8, 6, 8, 11, 8, 10, 34, 14, 22]);
+  printSetup(ws, "landscape");
 }
 
 function zonesSheet(wb: ExcelJS.Workbook): void {
   const ws = wb.addWorksheet("Zones");
   title(ws, `Zones — ${VENUE}`, "Active clients per class in each zone at the busiest hour; demand is clients × demand per client (Clients sheet).");
   const classes = CLIENT_CLASSES.length;
-  header(ws, 3, ["Zone", "Area (m²)", ...CLIENT_CLASSES.map(() => ""), "Clients", "Demand (Mb/s)"]);
+  header(ws, 3, ["Zone", "Area (m²)", ...CLIENT_CLASSES.map(() => ""), "Clients", "Demand (Mb/s)", "Voice calls (handsets)"]);
   for (let i = 0; i < classes; i++) put(ws, `${col(2 + i)}3`, f(`Clients!A${4 + i}`));
   const first = col(2);
   const last = col(1 + classes);
-  ZONES.forEach(([zone, area, counts], i) => {
+  ZONES.forEach(([zone, area, counts, calls], i) => {
     const r = 4 + i;
     put(ws, `A${r}`, zone);
+    put(ws, `${col(4 + classes)}${r}`, calls);
     put(ws, `B${r}`, area, "#,##0");
     counts.forEach((n, j) => put(ws, `${col(2 + j)}${r}`, n));
     put(ws, `${col(2 + classes)}${r}`, f(`SUM(${first}${r}:${last}${r})`));
     put(ws, `${col(3 + classes)}${r}`, f(`MMULT(${first}${r}:${last}${r},Clients!$J$4:$J$${3 + classes})`), "0.0");
   });
-  widths(ws, [26, 11, ...CLIENT_CLASSES.map(() => 14), 10, 14]);
+  widths(ws, [26, 11, ...CLIENT_CLASSES.map(() => 14), 10, 14, 14]);
+  printSetup(ws, "landscape");
 }
 
 /** Budget rows: the zone table starts here. */
-export const BUDGET_FIRST_ZONE_ROW = 21;
+export const BUDGET_FIRST_ZONE_ROW = 25;
+/** Budget cell of one voice flow's airtime (CLIENTSHARE with mpdus = 1). */
+export const BUDGET_VOICE_SHARE = "B22";
 
 function budgetSheet(wb: ExcelJS.Workbook): void {
   const ws = wb.addWorksheet("Budget");
@@ -156,8 +193,13 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
     ["Centre frequency (MHz)", 5500, "", "0"],
     ["Distance power coefficient N", 30, "ITU-R P.1238 (INDOORLOSS default)", "0"],
     ["Beacon overhead (share of airtime)", f("AIRTALLY.BEACONSHARE(B7,B5,B6)"), "BEACONSHARE, default beacon of a typical 5 GHz AP", "0.0%"],
-    ["Cell reach (m)", f("AIRTALLY.REACH(B10,B13,B14,B15)"), "REACH, no floors between", "0.0"],
+    ["Cell reach (m)", f("AIRTALLY.REACH(B10,B13,B14,B15,0,,0,B23)"), "REACH, no floors, walls from B23", "0.0"],
     ["Airtime one delegate laptop needs", f("AIRTALLY.CLIENTSHARE(Clients!H5,Clients!J5,B8)"), "CLIENTSHARE", "0.00%"],
+    ["Voice handset link", f(`AIRTALLY.LINK("${VOICE.family}",${VOICE.mcs},${VOICE.streams},${VOICE.widthMHz})`), "voice calls on handsets"],
+    ["Voice flow, one direction (Mb/s)", VOICE.demandMbps, "G.711, 20 ms packets: 50 × 200 bytes a second", "0.00"],
+    ["Voice packet (bytes)", VOICE.packetBytes, "160 audio + RTP 12 + UDP 8 + IP 20", "0"],
+    ["Airtime one voice flow needs", f("AIRTALLY.CLIENTSHARE(B19,B20,B21,1,\"VO\",,1)"), "CLIENTSHARE on VO, one packet per access (mpdus 1)", "0.00%"],
+    ["Walls to the cell edge", 1, "plasterboard, 4 dB at 5 GHz (common practice; a survey decides)", "0"],
   ];
   rows.forEach(([label, value, note, fmt], i) => {
     const r = 5 + i;
@@ -166,7 +208,7 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
     put(ws, `C${r}`, note).font = { italic: true, color: { argb: "FF4A5A60" } };
   });
   const top = BUDGET_FIRST_ZONE_ROW;
-  header(ws, top - 1, ["Zone", "Area (m²)", "Clients", "Demand (Mb/s)", "Airtime (channels)", "Radios for capacity", "APs for coverage", "APs planned"]);
+  header(ws, top - 1, ["Zone", "Area (m²)", "Clients", "Demand (Mb/s)", "Airtime (channels)", "Radios for capacity", "APs for coverage", "APs planned", "Voice calls"]);
   const lastClass = 3 + CLIENT_CLASSES.length;
   ZONES.forEach((_, i) => {
     const r = top + i;
@@ -175,7 +217,10 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
     put(ws, `B${r}`, f(`Zones!B${z}`), "#,##0");
     put(ws, `C${r}`, f(`Zones!${col(2 + CLIENT_CLASSES.length)}${z}`), "0");
     put(ws, `D${r}`, f(`Zones!${col(3 + CLIENT_CLASSES.length)}${z}`), "0.0");
-    put(ws, `E${r}`, f(`AIRTALLY.MIXSHARE(Clients!$H$4:$H$${lastClass},Zones!C${z}:${col(1 + CLIENT_CLASSES.length)}${z},Clients!$J$4:$J$${lastClass},$B$8)`), "0.00");
+    put(ws, `I${r}`, f(`Zones!${col(4 + CLIENT_CLASSES.length)}${z}`), "0");
+    // Data classes in full A-MPDUs (MIXSHARE) + each call's two voice flows, one packet per VO access.
+    const voice = `I${r}*${VOICE.flowsPerCall}*$B$22`; // B22: BUDGET_VOICE_SHARE
+    put(ws, `E${r}`, f(`AIRTALLY.MIXSHARE(Clients!$H$4:$H$${lastClass},Zones!C${z}:${col(1 + CLIENT_CLASSES.length)}${z},Clients!$J$4:$J$${lastClass},$B$8)+${voice}`), "0.00");
     put(ws, `F${r}`, f(`AIRTALLY.RADIOS(E${r},$B$9,$B$16)`), "0");
     put(ws, `G${r}`, f(`AIRTALLY.COVERAGEAPS(B${r},$B$17)`), "0");
     put(ws, `H${r}`, f(`MAX(F${r},G${r})`), "0");
@@ -183,15 +228,16 @@ function budgetSheet(wb: ExcelJS.Workbook): void {
   const bottom = top + ZONES.length - 1;
   const total = bottom + 1;
   put(ws, `A${total}`, "Total").font = { bold: true };
-  for (const [c, fmt] of [["B", "#,##0"], ["C", "0"], ["D", "0.0"], ["E", "0.00"], ["F", "0"], ["G", "0"], ["H", "0"]] as const) {
+  for (const [c, fmt] of [["B", "#,##0"], ["C", "0"], ["D", "0.0"], ["E", "0.00"], ["F", "0"], ["G", "0"], ["H", "0"], ["I", "0"]] as const) {
     put(ws, `${c}${total}`, f(`SUM(${c}${top}:${c}${bottom})`), fmt).font = { bold: true };
   }
   const caution = total + 2;
-  ws.mergeCells(`A${caution}:H${caution + 2}`);
+  ws.mergeCells(`A${caution}:I${caution + 2}`);
   const c = put(ws, `A${caution}`, RF_CAUTION);
   c.alignment = { wrapText: true, vertical: "top" };
   c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
-  widths(ws, [36, 22, 34, 14, 18, 18, 16, 12]);
+  widths(ws, [36, 22, 34, 14, 18, 18, 16, 12, 10]);
+  printSetup(ws, "landscape");
 }
 
 /** Quote line items: [item, quantity formula, unit, unit price (invented)]. */
@@ -235,6 +281,7 @@ function quoteSheet(wb: ExcelJS.Workbook): void {
   c.alignment = { wrapText: true, vertical: "top" };
   c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
   widths(ws, [48, 10, 8, 16, 18]);
+  printSetup(ws, "portrait", true);
 }
 
 function auditSheet(wb: ExcelJS.Workbook): void {
@@ -257,6 +304,7 @@ function auditSheet(wb: ExcelJS.Workbook): void {
   put(ws, "D8", f("AIRTALLY.TXTIMEPARTS(B3,B5)"));
   put(ws, "G8", f("AIRTALLY.EDCAMIX(B3,D4:D5,E4:E5,B4)"));
   widths(ws, [40, 12, 4, 30, 12, 4, 18, 12, 14, 14, 14]);
+  printSetup(ws, "landscape");
 }
 
 /** The planning caution of the OFDMA comparison (README "Cautions", same policy). */
@@ -315,6 +363,7 @@ function ofdmaSheet(wb: ExcelJS.Workbook): void {
   c.alignment = { wrapText: true, vertical: "top" };
   c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFFFF3CD" } };
   widths(ws, [62, 26, 22, 22, 18, 18, 14]);
+  printSetup(ws, "landscape");
 }
 
 /** The demo workbook, recalculated with the given add-in build. */

@@ -16,3 +16,4 @@ export * as contention from "./contention/index";
 export * as rf from "./rf/index";
 export * as budget from "./budget/index";
 export * as mu from "./mu/index";
+export { resolvedDefault, resultChain, type ChainRow } from "./explain";

@@ -270,6 +270,7 @@ export function access(
  * @example =AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz", 1500)
  * @example =AIRTALLY.GOODPUT("VHT MCS9 2SS 80MHz", 1500, "auto", "BE", "none", 0.1)
  * @remarks Packet bits per access ÷ ACCESS. With block ack, lost MPDUs ride in later A-MPDUs, so (1 − p) of the MPDU slots carry new data; without A-MPDU the whole frame is sent again until acknowledged.
+ * @remarks TCP in mac_options: the receiver's TCP acknowledgements (40-byte IP packets, one per TCPACK=n segments, default 2 — delayed ACKs, RFC 1122 4.2.3.2 and RFC 5681 4.2) each take a channel access of their own on the reverse link (same link and access category, no protection, one MPDU): goodput = 1 ÷ (1 ÷ G + ACCESS(ACK) ÷ (8 × packet_bytes × n)), G the goodput without them.
  * @helpurl https://localhost:3000/help/goodput.html
  */
 export function goodput(
@@ -361,6 +362,7 @@ export function collide(stations: number, cwmin?: number, cwmax?: number, retry_
  * @example =AIRTALLY.SATURATE("OFDM 54Mbps 5GHz", 10, 1500)
  * @example =AIRTALLY.SATURATE("HE MCS7 1SS 20MHz", 20, 1500, "auto", "BE", "RTS")
  * @remarks Bianchi's saturation model (IEEE JSAC 18(3), 2000) with EDCA timing: AIFS in place of DIFS, success and collision times from one channel access (ACCESS) with aggregation and protection.
+ * @remarks TCP in mac_options: the receivers' TCP acknowledgements (one 40-byte packet per TCPACK=n segments, default 2) add their own uncontended channel accesses after the saturated data (as in GOODPUT); the collisions they would add are not counted, so the result is an upper bound.
  * @helpurl https://localhost:3000/help/saturate.html
  */
 export function saturate(
@@ -372,7 +374,7 @@ export function saturate(
   protection?: ProtectionMode,
   mac_options?: string,
 ): number {
-  return numberCell(() => contention.saturationGoodputMbps(link, stations, packet_bytes, mpdus, access, protection, mac_options));
+  return numberCell(() => budget.saturationGoodputTcpMbps(link, stations, packet_bytes, mpdus, access, protection, mac_options));
 }
 
 /**
@@ -399,7 +401,7 @@ export function contentionshare(
   protection?: ProtectionMode,
   mac_options?: string,
 ): number {
-  return numberCell(() => contention.contentionShare(link, stations, packet_bytes, mpdus, access, protection, mac_options));
+  return numberCell(() => contention.contentionShare(link, stations, packet_bytes, mpdus, access, protection, budget.dataOnlyMacOptions("CONTENTION", mac_options)));
 }
 
 /**
@@ -426,7 +428,7 @@ export function edcamix(
   protection?: ProtectionMode,
   mac_options?: string,
 ): any[][] {
-  return arrayCell(() => edcaMixTable(link, access_list, counts, packet_bytes, mpdus, protection, mac_options));
+  return arrayCell(() => edcaMixTable(link, access_list, counts, packet_bytes, mpdus, protection, budget.dataOnlyMacOptions("EDCAMIX", mac_options)));
 }
 
 // ---------------------------------------------------------------- RF
@@ -454,16 +456,29 @@ export function fspl(distance_m: number, freq_mhz: number): number {
  * @param [distance_power] Distance power loss coefficient N, default 30
  * @param [floors] Floors between transmitter and receiver (count), default 0
  * @param [floor_loss_db] Loss per floor (dB); omitted: the office floor penetration factor L_f(n) of ITU-R P.1238-7 Table 3 for the band
+ * @param [walls] Walls between transmitter and receiver (count), default 0
+ * @param [wall_loss_db] Loss per wall (dB); omitted: 3 dB up to 3 GHz, 4 dB at 5 and 6 GHz (common practice for an interior plasterboard wall)
  * @returns Path loss (dB)
  * @example =AIRTALLY.INDOORLOSS(20, 5500)
  * @example =AIRTALLY.INDOORLOSS(20, 1900, 30, 3)
  * @example =AIRTALLY.INDOORLOSS(20, 2437, 28, 1, 15)
- * @remarks L = 20 log10 f − 28 + N log10 d + L_f(n), Recommendation ITU-R P.1238-7 (02/2012) §3.1. With floor_loss_db omitted, L_f(n) is Table 3's office factor for the band (from memory of the recommendation): 1.8–2 GHz 15 + 4(n − 1) dB, 2.4 GHz 14 dB (1 floor), 5.2 GHz 16 dB (1 floor), 5.8 GHz 22 / 28 dB (1 / 2 floors; also used for 5.35–5.725 GHz, the larger loss); more floors than the table gives, or a band it lacks (6 GHz), need floor_loss_db. Given, floor_loss_db counts once per floor.
+ * @example =AIRTALLY.INDOORLOSS(20, 5500, 30, 0, , 3)
+ * @example =AIRTALLY.INDOORLOSS(20, 5500, 30, 0, , 2, 10)
+ * @remarks L = 20 log10 f − 28 + N log10 d + L_f(n) + walls × wall_loss_db, Recommendation ITU-R P.1238-7 (02/2012) §3.1 plus a wall term. With floor_loss_db omitted, L_f(n) is Table 3's office factor for the band (from memory of the recommendation): 1.8–2 GHz 15 + 4(n − 1) dB, 2.4 GHz 14 dB (1 floor), 5.2 GHz 16 dB (1 floor), 5.8 GHz 22 / 28 dB (1 / 2 floors; also used for 5.35–5.725 GHz, the larger loss); more floors than the table gives, or a band it lacks (6 GHz), need floor_loss_db. Given, floor_loss_db counts once per floor.
+ * @remarks Walls: P.1238's N already averages the walls of a typical building, so counting walls gives a more pessimistic, wall-by-wall estimate. Loss per wall, common practice (not a standard's value), at 2.4 / 5 GHz: clear glass 2 / 3 dB, wooden door 3 / 4 dB, plasterboard 3 / 4 dB (the default), brick 6 / 10 dB, concrete block 10 / 15 dB, poured concrete 15 / 20 dB or more, metal or coated glass 20 dB or more. Real walls vary widely: a site survey decides. Above 7.125 GHz give wall_loss_db.
  * @caution Planning estimate only; a site survey, local regulations and licensed practice decide.
  * @helpurl https://localhost:3000/help/indoorloss.html
  */
-export function indoorloss(distance_m: number, freq_mhz: number, distance_power?: number, floors?: number, floor_loss_db?: number): number {
-  return numberCell(() => rf.indoorLossDb(distance_m, freq_mhz, distance_power, floors, floor_loss_db));
+export function indoorloss(
+  distance_m: number,
+  freq_mhz: number,
+  distance_power?: number,
+  floors?: number,
+  floor_loss_db?: number,
+  walls?: number,
+  wall_loss_db?: number,
+): number {
+  return numberCell(() => rf.indoorLossDb(distance_m, freq_mhz, distance_power, floors, floor_loss_db, walls, wall_loss_db));
 }
 
 /**
@@ -518,10 +533,13 @@ export function toplink(
  * @param [floors] Floors crossed (count), default 0
  * @param [floor_loss_db] Loss per floor (dB); omitted: the office floor penetration factor L_f(n) of ITU-R P.1238-7 Table 3 for the band
  * @param [rx_gain_dbi] Client antenna gain (dBi), default 0
+ * @param [walls] Walls between transmitter and receiver (count), default 0
+ * @param [wall_loss_db] Loss per wall (dB); omitted: 3 dB up to 3 GHz, 4 dB at 5 and 6 GHz (common practice for an interior plasterboard wall)
  * @returns Distance (m)
  * @example =AIRTALLY.REACH(20, -67, 5500)
  * @example =AIRTALLY.REACH(20, -67, 5200, 31, 1)
- * @remarks Solves the ITU-R P.1238-7 site-general model for d, with the same floor rule as INDOORLOSS (Table 3's office L_f(n) when floor_loss_db is omitted, from memory; floors × floor_loss_db when given).
+ * @example =AIRTALLY.REACH(20, -67, 5500, 30, 0, , 0, 2)
+ * @remarks Solves the ITU-R P.1238-7 site-general model for d, with the same floor and wall rules as INDOORLOSS (Table 3's office L_f(n) when floor_loss_db is omitted, from memory; floors × floor_loss_db when given; walls × wall_loss_db, common-practice plasterboard loss when omitted — see INDOORLOSS for values by material; a site survey decides).
  * @caution The EIRP is the value you give; legal EIRP and channel use differ by country and RF exposure limits protect people. Planning estimate only; a site survey, local regulations and licensed practice decide.
  * @helpurl https://localhost:3000/help/reach.html
  */
@@ -533,8 +551,10 @@ export function reach(
   floors?: number,
   floor_loss_db?: number,
   rx_gain_dbi?: number,
+  walls?: number,
+  wall_loss_db?: number,
 ): number {
-  return numberCell(() => rf.reachM(eirp_dbm, target_dbm, freq_mhz, distance_power, floors, floor_loss_db, rx_gain_dbi));
+  return numberCell(() => rf.reachM(eirp_dbm, target_dbm, freq_mhz, distance_power, floors, floor_loss_db, rx_gain_dbi, walls, wall_loss_db));
 }
 
 // ---------------------------------------------------------------- Site budget
@@ -585,10 +605,12 @@ export function beaconshare(beacon_link: string, ssids: number, aps_heard?: numb
  * @param [stations] Contending stations (count), default 1
  * @param [access] Access category BK, BE, VI, VO or DCF; default BE
  * @param [mac_options] MAC settings text
+ * @param [mpdus] MPDUs per channel access (count) or "auto" (default, the aggregation limit); 1 for traffic sent one packet per access, e.g. voice
  * @returns Share of airtime (share; above 1 means more than one channel)
  * @example =AIRTALLY.CLIENTSHARE("HE MCS7 2SS 40MHz", 5)
  * @example =AIRTALLY.CLIENTSHARE("HE MCS7 2SS 40MHz", 5, 1500, 20)
- * @remarks demand ÷ GOODPUT for one station, demand ÷ SATURATE for several (the channel's capacity in that link under contention).
+ * @example =AIRTALLY.CLIENTSHARE("HE MCS7 2SS 40MHz", 0.1, 200, 1, "VO", "", 1)
+ * @remarks demand ÷ GOODPUT(link, packet_bytes, mpdus, access) for one station, demand ÷ SATURATE for several (the channel's capacity in that link under contention). With mpdus = 1 every packet pays a whole channel access (AIFS, backoff, preamble, Ack), as voice does: far more airtime than the same demand in full A-MPDUs.
  * @helpurl https://localhost:3000/help/clientshare.html
  */
 export function clientshare(
@@ -598,8 +620,9 @@ export function clientshare(
   stations?: number,
   access?: AccessCategory,
   mac_options?: string,
+  mpdus?: any,
 ): number {
-  return numberCell(() => budget.clientShare(link, demand_mbps, packet_bytes, stations, access, mac_options));
+  return numberCell(() => budget.clientShare(link, demand_mbps, packet_bytes, stations, access, mac_options, mpdus));
 }
 
 /**
@@ -610,13 +633,24 @@ export function clientshare(
  * @param demands_mbps Demand per client (Mb/s, range)
  * @param [packet_bytes] Network-layer packet (bytes), default 1500
  * @param [stations] Contending stations (count), default 1
+ * @param [accesses] Access category per class, BK, BE, VI, VO or DCF, optionally followed by that class's MAC settings such as "BE TCP" (range the size of links; blank or omitted: BE)
+ * @param [mpdus] MPDUs per channel access per class, a count or "auto" (range the size of links; blank or omitted: "auto"); 1 for voice
  * @returns Total share of airtime (share; above 1 means more than one channel)
  * @example =AIRTALLY.MIXSHARE({"HE MCS7 2SS 40MHz";"HT MCS4 20MHz 5GHz"}, {20;5}, {2;1})
- * @remarks Σ count × CLIENTSHARE(link, demand); blank rows are ignored.
+ * @example =AIRTALLY.MIXSHARE({"HE MCS7 2SS 40MHz";"HE MCS7 2SS 40MHz"}, {20;10}, {2;0.1}, 1500, 1, {"BE";"VO"}, {"auto";1})
+ * @remarks Σ count × CLIENTSHARE(link, demand, packet_bytes, stations, access, , mpdus) with each class's access and mpdus; blank rows are ignored.
  * @helpurl https://localhost:3000/help/mixshare.html
  */
-export function mixshare(links: any[][], counts: any[][], demands_mbps: any[][], packet_bytes?: number, stations?: number): number {
-  return numberCell(() => budget.mixShare(links, counts, demands_mbps, packet_bytes, stations));
+export function mixshare(
+  links: any[][],
+  counts: any[][],
+  demands_mbps: any[][],
+  packet_bytes?: number,
+  stations?: number,
+  accesses?: any[][],
+  mpdus?: any[][],
+): number {
+  return numberCell(() => budget.mixShare(links, counts, demands_mbps, packet_bytes, stations, accesses, mpdus));
 }
 
 /**

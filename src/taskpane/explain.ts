@@ -1,12 +1,14 @@
 /**
- * "Explain this cell": for an AIRTALLY call, the inputs it used (literal or
- * read from cells) and its breakdown — the audit table computed by the core
- * for the same arguments (BREAKDOWN for airtime functions, MUBREAKDOWN for
- * the multi-user ones, TXTIMEPARTS for TXTIME, the link's canonical form,
- * rate and sensitivity for PHY lookups).
+ * "Explain this cell": for an AIRTALLY call, the result first, then the
+ * inputs it used (literal, read from cells, or omitted — with the value the
+ * core applies for an omitted one), its breakdown — the audit table computed
+ * by the core for the same arguments (BREAKDOWN for airtime functions,
+ * MUBREAKDOWN for the multi-user ones, TXTIMEPARTS for TXTIME, the link's canonical form, rate and sensitivity
+ * for PHY lookups) — and, for GOODPUT, EFFICIENCY, SATURATE and CLIENTSHARE,
+ * the arithmetic from that breakdown to the result (core resultChain).
  * Pure: the Office glue reads the referenced cells and passes their values.
  */
-import { breakdownTable, edcaMixTable, txtimeTable, rateMbps, sensitivityDbm, phy, mu, AirtallyError } from "../core/index";
+import { breakdownTable, edcaMixTable, txtimeTable, rateMbps, sensitivityDbm, phy, mu, AirtallyError, resolvedDefault, resultChain } from "../core/index";
 import { classify, findCall, type Argument, type Call } from "./formula";
 import type { FunctionMetadata } from "./reference";
 
@@ -24,6 +26,8 @@ export interface Input {
   /** The value used; null = omitted or empty (the function's default). */
   value: unknown;
   from: "literal" | "cell" | "default" | "expression";
+  /** For an omitted argument: the value the function applies (resolved by the core); null when it has none to show. */
+  used?: string | number | null;
 }
 
 export interface Explanation {
@@ -33,6 +37,12 @@ export interface Explanation {
   inputs: Input[];
   tableTitle?: string;
   table?: (string | number)[][];
+  /** The cell's result (or this call's, when the formula does more than the call). */
+  result?: unknown;
+  resultNote?: string;
+  /** From the breakdown to the result, one step a row, the result last. */
+  chainTitle?: string;
+  chain?: (string | number)[][];
   helpUrl?: string;
 }
 
@@ -97,8 +107,29 @@ function breakdownFor(id: string, a: Args): { title: string; table: Table } | nu
   }
 }
 
-/** Explain a formula given the values of the cells it references (address → range.values). */
-export function explain(plan: ExplainPlan, metadata: FunctionMetadata[], values: Map<string, unknown[][]>): Explanation {
+/** True when the formula is the AIRTALLY call and nothing else, so the cell's value is the call's result. */
+function isCallAlone(plan: ExplainPlan): boolean {
+  if (!plan.call) return false;
+  const bare = plan.formula.replace(/\s+/g, "").toUpperCase();
+  const args = plan.call.args.join(",").replace(/\s+/g, "").toUpperCase();
+  return bare === `=AIRTALLY.${plan.call.id}(${args})` || bare === `=_XLDUDF_AIRTALLY_${plan.call.id}(${args})`;
+}
+
+/** The chain from breakdown to result, or null (no chain for the function, or the inputs are refused). */
+function chainFor(id: string, a: Args): Table | null {
+  try {
+    return resultChain(id, a);
+  } catch (e) {
+    if (e instanceof AirtallyError) return null;
+    throw e;
+  }
+}
+
+/**
+ * Explain a formula given the values of the cells it references (address →
+ * range.values) and, when known, the cell's own value (its result).
+ */
+export function explain(plan: ExplainPlan, metadata: FunctionMetadata[], values: Map<string, unknown[][]>, cellValue?: unknown): Explanation {
   if (!plan.formula) return { kind: "empty", title: "No formula", message: "The selected cell holds no formula. Select a cell with an AIRTALLY formula.", inputs: [] };
   if (!plan.call) {
     return {
@@ -138,14 +169,28 @@ export function explain(plan: ExplainPlan, metadata: FunctionMetadata[], values:
     inputs.push(input);
     byName[p.name] = input.value;
   });
-  const base = { kind: "airtally" as const, title: `AIRTALLY.${id}`, inputs, helpUrl: fn.helpUrl };
+  // An argument given as an empty cell is omitted too: the function applies its default.
+  for (const input of inputs) {
+    if (input.value === null && input.from !== "expression") input.used = resolvedDefault(id, input.name, byName);
+  }
+  const alone = isCallAlone(plan);
+  const shown = alone && cellValue !== undefined ? { result: cellValue, resultNote: "the cell's value" } : {};
+  const base = { kind: "airtally" as const, title: `AIRTALLY.${id}`, inputs, helpUrl: fn.helpUrl, ...shown };
   if (unresolved) {
     return { ...base, message: "An argument is a calculation, not a value or a cell; put it in a cell of its own to see the breakdown." };
   }
+  const chain = chainFor(id, byName);
+  const withChain = chain
+    ? {
+        chainTitle: "From the breakdown to the result",
+        chain,
+        ...(alone && cellValue !== undefined ? {} : { result: chain[chain.length - 1][1], resultNote: alone ? "this call's result" : "this call's result (the cell's formula does more than this call)" }),
+      }
+    : {};
   try {
     const b = breakdownFor(id, byName);
-    if (!b) return { ...base, message: `${fn.description ?? ""} No breakdown table for this function; its model and source are on its help page.`.trim() };
-    return { ...base, message: fn.description ?? "", tableTitle: b.title, table: b.table };
+    if (!b) return { ...base, ...withChain, message: `${fn.description ?? ""} No breakdown table for this function; its model and source are on its help page.`.trim() };
+    return { ...base, ...withChain, message: fn.description ?? "", tableTitle: b.title, table: b.table };
   } catch (e) {
     const why = e instanceof AirtallyError ? e.message : `internal error: ${e instanceof Error ? e.message : String(e)}`;
     return { ...base, message: `The breakdown could not be computed for these inputs: ${why}` };

@@ -52,7 +52,7 @@ function splitAddress(ref: string): { sheet: string | null; address: string } {
 export async function explainActiveCell(excel: ExcelLike, metadata: FunctionMetadata[]): Promise<{ address: string; explanation: Explanation }> {
   return excel.run(async (context) => {
     const cell = context.workbook.getActiveCell();
-    cell.load(["address", "formulas"]);
+    cell.load(["address", "formulas", "values"]);
     await context.sync();
     const raw = cell.formulas?.[0]?.[0];
     const plan = planExplanation(typeof raw === "string" ? raw : "");
@@ -64,6 +64,6 @@ export async function explainActiveCell(excel: ExcelLike, metadata: FunctionMeta
     });
     if (ranges.length) await context.sync();
     const values = new Map<string, unknown[][]>(ranges.map(({ ref, range }) => [ref, range.values as unknown[][]]));
-    return { address: cell.address, explanation: explain(plan, metadata, values) };
+    return { address: cell.address, explanation: explain(plan, metadata, values, cell.values?.[0]?.[0]) };
   });
 }

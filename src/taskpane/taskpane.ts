@@ -63,14 +63,20 @@ function renderExplanation(address: string, x: Explanation): void {
   const out = byId("explain-output");
   if (!out) return;
   out.textContent = "";
-  out.append(el("h3", `${address}: ${x.title}`), el("p", x.message));
+  out.append(el("h3", `${address}: ${x.title}`));
+  if (x.result !== undefined) out.append(el("p", `Result: ${cellText(x.result)} (${x.resultNote ?? ""})`));
+  out.append(el("p", x.message));
   if (x.inputs.length) {
     out.append(el("h4", "Inputs used"));
     const from = { literal: "typed in the formula", cell: "read from the cell", default: "omitted: the default", expression: "a calculation" };
-    out.append(table(x.inputs.map((i) => [i.name, i.text || "—", cellText(i.value), from[i.from]]), ["argument", "as written", "value", "where from"]));
+    const shown = (i: Explanation["inputs"][number]) => (i.value === null && i.used != null ? `${cellText(i.used)} (default)` : cellText(i.value));
+    out.append(table(x.inputs.map((i) => [i.name, i.text || "—", shown(i), from[i.from]]), ["argument", "as written", "value", "where from"]));
   }
   if (x.table) {
     out.append(el("h4", x.tableTitle ?? "Breakdown"), table(x.table));
+  }
+  if (x.chain) {
+    out.append(el("h4", x.chainTitle ?? "From the breakdown to the result"), table(x.chain));
   }
 }
 

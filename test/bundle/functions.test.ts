@@ -34,7 +34,7 @@ describe("functions bundle in a bare context", () => {
 
   it("names every parameter with its unit suffix or a catalog name", () => {
     // DESIGN.md §1: parameter names end with their unit; the few unitless ones are catalog names.
-    const unitless = new Set(["link", "family", "mcs", "streams", "phy_options", "mac_options", "access", "protection", "mpdus", "count", "mpdu_loss", "mode", "stations", "cwmin", "cwmax", "retry_limit", "access_list", "counts", "ssids", "aps_heard", "links", "floors", "distance_power", "total_share", "max_utilization", "overhead_share", "overlap_share", "beacon_link", "users", "direction"]);
+    const unitless = new Set(["link", "family", "mcs", "streams", "phy_options", "mac_options", "access", "protection", "mpdus", "count", "mpdu_loss", "mode", "stations", "cwmin", "cwmax", "retry_limit", "access_list", "counts", "ssids", "aps_heard", "links", "floors", "walls", "accesses", "distance_power", "total_share", "max_utilization", "overhead_share", "overlap_share", "beacon_link", "users", "direction"]);
     for (const fn of metadata.functions) {
       for (const p of fn.parameters) {
         const ok = unitless.has(p.name) || /_(bytes|us|mhz|ghz|dbm|db|dbi|m|m2|mbps|tu)$/.test(p.name);

@@ -53,6 +53,8 @@ export const SAMPLES: Record<string, Sample[]> = {
   GOODPUT: [
     { args: ["OFDM 54Mbps", 1500, null, null, null, null, null], expected: () => mac.goodputMbps("OFDM 54Mbps", 1500) },
     { args: ["VHT MCS9 2SS 80MHz", 1500, 32, "BE", "CTS", 0.1, "open"], expected: () => mac.goodputMbps("VHT MCS9 2SS 80MHz", 1500, 32, "BE", "CTS", 0.1, "open") },
+    // Issue 15: a TCP download, OFDM 54 Mb/s: 2 × 8 × 1500 bits ÷ (2 × 406.5 µs data + 190.5 µs ACK access), hand-derived in test/core/mac/tcp.test.ts.
+    { args: ["OFDM 54Mbps 5GHz", 1500, null, null, null, null, "TCP"], expected: () => expect.closeTo((2 * 8 * 1500) / (2 * 406.5 + 190.5), 10) },
   ],
   EFFICIENCY: [{ args: ["HT MCS7 20MHz", 1500, 1, null, null, null, null], expected: () => mac.efficiency("HT MCS7 20MHz", 1500, 1) }],
   RETX: [
@@ -63,7 +65,10 @@ export const SAMPLES: Record<string, Sample[]> = {
     { args: [10, null, null, null], expected: () => contention.collisionProbability(10) },
     { args: [50, 31, 1023, 4], expected: () => contention.collisionProbability(50, 31, 1023, 4) },
   ],
-  SATURATE: [{ args: ["OFDM 54Mbps", 10, 1500, null, null, null, null], expected: () => contention.saturationGoodputMbps("OFDM 54Mbps", 10, 1500) }],
+  SATURATE: [
+    { args: ["OFDM 54Mbps", 10, 1500, null, null, null, null], expected: () => contention.saturationGoodputMbps("OFDM 54Mbps", 10, 1500) },
+    { args: ["OFDM 54Mbps", 10, 1500, null, null, null, "TCP"], expected: () => budget.saturationGoodputTcpMbps("OFDM 54Mbps", 10, 1500, null, null, null, "TCP") },
+  ],
   CONTENTION: [{ args: ["HE MCS7 20MHz", 20, 1500, "auto", "BE", "RTS", null], expected: () => contention.contentionShare("HE MCS7 20MHz", 20, 1500, "auto", "BE", "RTS") }],
   EDCAMIX: [
     {
@@ -73,28 +78,39 @@ export const SAMPLES: Record<string, Sample[]> = {
   ],
   FSPL: [{ args: [10, 5500], expected: () => rf.fsplDb(10, 5500) }],
   INDOORLOSS: [
-    { args: [20, 5500, null, null, null], expected: () => rf.indoorLossDb(20, 5500) },
-    { args: [20, 2437, 28, 1, 15], expected: () => rf.indoorLossDb(20, 2437, 28, 1, 15) },
+    { args: [20, 5500, null, null, null, null, null], expected: () => rf.indoorLossDb(20, 5500) },
+    { args: [20, 2437, 28, 1, 15, null, null], expected: () => rf.indoorLossDb(20, 2437, 28, 1, 15) },
+    // Issue 15 acceptance: walls add walls × wall_loss_db to the floor-only loss.
+    { args: [20, 2437, 28, 1, 15, 3, 6], expected: () => rf.indoorLossDb(20, 2437, 28, 1, 15) + 3 * 6 },
   ],
   NOISEFLOOR: [{ args: [20, null], expected: () => rf.noiseFloorDbm(20) }],
   TOPLINK: [
     { args: ["VHT", -60, 2, 80, null, null], expected: () => rf.topLink("VHT", -60, 2, 80) },
     { args: ["OFDM", -75, null, null, 3, null], expected: () => rf.topLink("OFDM", -75, null, null, 3) },
   ],
-  REACH: [{ args: [20, -67, 5500, null, null, null, null], expected: () => rf.reachM(20, -67, 5500) }],
+  REACH: [
+    { args: [20, -67, 5500, null, null, null, null, null, null], expected: () => rf.reachM(20, -67, 5500) },
+    { args: [20, -67, 5500, 30, 0, null, 0, 2, 10], expected: () => rf.reachM(20, -67, 5500, 30, 0, null, 0, 2, 10) },
+  ],
   COVERAGEAPS: [{ args: [5000, 25, null], expected: () => budget.coverageAps(5000, 25) }],
   BEACONSHARE: [
     { args: ["OFDM 6Mbps 5GHz", 4, 3, null, null], expected: () => budget.beaconShare("OFDM 6Mbps 5GHz", 4, 3) },
     { args: ["DSSS 1Mbps", 4, 3, 350, 100], expected: () => budget.beaconShare("DSSS 1Mbps", 4, 3, 350, 100) },
   ],
   CLIENTSHARE: [
-    { args: ["HE MCS7 2SS 40MHz", 5, null, null, null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5) },
-    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 20, "VI", null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 20, "VI") },
+    { args: ["HE MCS7 2SS 40MHz", 5, null, null, null, null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5) },
+    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 20, "VI", null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 20, "VI") },
+    // Issue 15 acceptance: a voice client, one 200-octet packet per VO access = demand ÷ GOODPUT(link, 200, 1, "VO") exactly.
+    { args: ["HE MCS7 2SS 40MHz", 0.1, 200, 1, "VO", null, 1], expected: () => 0.1 / mac.goodputMbps("HE MCS7 2SS 40MHz", 200, 1, "VO") },
   ],
   MIXSHARE: [
     {
-      args: [[["HE MCS7 2SS 40MHz"], ["HT MCS4 20MHz"], [""]], [[20], [5], [null]], [[2], [1], [null]], null, null],
+      args: [[["HE MCS7 2SS 40MHz"], ["HT MCS4 20MHz"], [""]], [[20], [5], [null]], [[2], [1], [null]], null, null, null, null],
       expected: () => budget.mixShare([["HE MCS7 2SS 40MHz"], ["HT MCS4 20MHz"], [""]], [[20], [5], [null]], [[2], [1], [null]]),
+    },
+    {
+      args: [[["HE MCS7 2SS 40MHz"], ["HE MCS7 2SS 40MHz"]], [[20], [10]], [[2], [0.1]], null, null, [["BE"], ["VO"]], [["auto"], [1]]],
+      expected: () => 20 * budget.clientShare("HE MCS7 2SS 40MHz", 2) + 10 * (0.1 / mac.goodputMbps("HE MCS7 2SS 40MHz", 1500, 1, "VO")),
     },
   ],
   RADIOS: [{ args: [2.3, null, null], expected: () => budget.radios(2.3) }],

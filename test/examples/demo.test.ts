@@ -10,7 +10,7 @@ import * as core from "../../src/core/index";
 import { loadAirtally } from "../../src/cli/bundle";
 import { recalc, type RecalcResult, type Value } from "../../src/cli/engine";
 import { bookFromExcel } from "../../src/cli/xlsx";
-import { buildDemo, BUDGET_FIRST_ZONE_ROW, CLIENT_CLASSES, DEMO_FILE, OFDMA_CAUTION, OFDMA_GI_US, OFDMA_HANDSETS, OFDMA_PACKET_BYTES, OFDMA_RU, QUOTE_CAUTION, QUOTE_ITEMS, RF_CAUTION, ZONES } from "../../scripts/make-demo";
+import { buildDemo, BUDGET_FIRST_ZONE_ROW, BUDGET_VOICE_SHARE, CLIENT_CLASSES, DEMO_FILE, OFDMA_CAUTION, OFDMA_GI_US, OFDMA_HANDSETS, OFDMA_PACKET_BYTES, OFDMA_RU, QUOTE_CAUTION, QUOTE_ITEMS, RF_CAUTION, ZONES } from "../../scripts/make-demo";
 
 const functions = loadAirtally();
 
@@ -78,9 +78,14 @@ describe("the demo, recalculated, equals the core called directly", () => {
   const demands = CLIENT_CLASSES.map((c) => c[7]);
   const beacon = () => core.budget.beaconShare("OFDM 6Mbps 5GHz", 3, 2);
   const target = () => core.sensitivityDbm("HE MCS4 2SS 80MHz") + 5;
-  const reach = () => core.rf.reachM(20, target(), 5500, 30);
+  // One plasterboard wall to the cell edge at the default per-wall loss (4 dB at 5 GHz, common practice).
+  const reach = () => core.rf.reachM(20, target(), 5500, 30, 0, null, 0, 1);
+  // A voice flow: G.711 in 20 ms packets, 50 × 200 octets a second, one packet per VO access = demand ÷ GOODPUT(link, 200, 1, "VO").
+  const voiceFlow = () => (50 * 200 * 8) / 1e6 / core.mac.goodputMbps("HE MCS5 1SS 80MHz", 200, 1, "VO");
+  const zoneShare = (i: number) =>
+    core.budget.mixShare(links.map((l) => [l]), [ZONES[i][2]], demands.map((d) => [d]), 1500) + ZONES[i][3] * 2 * voiceFlow();
   const aps = (i: number) => {
-    const share = core.budget.mixShare(links.map((l) => [l]), [ZONES[i][2]], demands.map((d) => [d]), 1500);
+    const share = zoneShare(i);
     return Math.max(core.budget.radios(share, 0.7, beacon()), core.budget.coverageAps(ZONES[i][1], reach()));
   };
 
@@ -94,11 +99,16 @@ describe("the demo, recalculated, equals the core called directly", () => {
 
   it("puts REACH at the cell-edge target (sensitivity + 5 dB margin) in the cell reach", () => {
     expect(num("Budget", "B17")).toBeCloseTo(reach(), 9);
+    // the wall costs 4 dB: the reach is 10^(4 ÷ 30) = 1.36 times shorter than without it (P.1238 eq. (1), N = 30)
+    expect(core.rf.reachM(20, target(), 5500, 30) / num("Budget", "B17")).toBeCloseTo(Math.pow(10, 4 / 30), 9);
   });
 
-  it.each(ZONES.map((z, i) => [z[0], i]))("gives %s the airtime MIXSHARE gives its client mix", (_zone, i) => {
-    const share = core.budget.mixShare(links.map((l) => [l]), [ZONES[Number(i)][2]], demands.map((d) => [d]), 1500);
-    expect(num("Budget", `E${BUDGET_FIRST_ZONE_ROW + Number(i)}`)).toBeCloseTo(share, 12);
+  it("charges a voice flow per packet: demand ÷ GOODPUT(handset link, 200, 1, VO)", () => {
+    expect(num("Budget", BUDGET_VOICE_SHARE)).toBeCloseTo(voiceFlow(), 12);
+  });
+
+  it.each(ZONES.map((z, i) => [z[0], i]))("gives %s the airtime MIXSHARE gives its client mix plus two voice flows per call", (_zone, i) => {
+    expect(num("Budget", `E${BUDGET_FIRST_ZONE_ROW + Number(i)}`)).toBeCloseTo(zoneShare(Number(i)), 12);
   });
 
   it.each(ZONES.map((z, i) => [z[0], i]))("plans for %s the larger of RADIOS and COVERAGEAPS", (_zone, i) => {

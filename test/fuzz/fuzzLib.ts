@@ -390,7 +390,7 @@ export const nearMissLinkText: fc.Arbitrary<string> = fc
 
 const access = fc.constantFrom("BK", "BE", "VI", "VO", "DCF", "be", " vo ");
 const protection = fc.constantFrom("none", "RTS", "CTS", "rts", "None");
-const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4", "MUBAR");
+const macOption = fc.constantFrom("CCMP-128", "GCMP-256", "CCMP-256", "open", "AMSDU=2", "AMSDU=4", "BA=64", "BA=256", "AMPDU=3", "TXOP=2528", "TXOP=0", "AP", "AIFSN=2", "CWMIN=7", "CWMAX=63", "SLOT=20", "SLOT=9", "BASIC=6,12,24", "HTC", "RETRY=4", "MUBAR", "TCP", "TCP TCPACK=3");
 const macOptions = fc.array(macOption, { maxLength: 4 }).map((xs) => [...new Set(xs)].join(" "));
 const share = fc.double({ min: 0, max: 1, noNaN: true });
 
@@ -436,6 +436,9 @@ const PLAUSIBLE: Record<string, fc.Arbitrary<unknown>> = {
   demand_mbps: fc.double({ min: 0, max: 100, noNaN: true }),
   links: validLinkText.map((t) => [[t]]),
   demands_mbps: fc.double({ min: 0, max: 50, noNaN: true }).map((d) => [[d]]),
+  accesses: access.map((a) => [[a]]),
+  walls: fc.integer({ min: 0, max: 20 }),
+  wall_loss_db: fc.double({ min: 0, max: 20, noNaN: true }),
   total_share: fc.double({ min: 0, max: 20, noNaN: true }),
   max_utilization: fc.double({ min: 0.1, max: 1, noNaN: true }),
   overhead_share: fc.double({ min: 0, max: 0.09, noNaN: true }),
@@ -518,13 +521,21 @@ function joint(fn: FunctionMeta): fc.Arbitrary<(args: unknown[]) => unknown[]> |
       });
   }
   if (has("links", "counts", "demands_mbps")) {
+    // accesses and mpdus (MIXSHARE), when declared, are ranges parallel to links.
+    const classAccess = fc.constantFrom("BK", "BE", "VI", "VO", "DCF", null);
+    const classMpdus = fc.constantFrom("auto", 1, null);
     return fc
-      .array(fc.tuple(validLinkText, fc.integer({ min: 0, max: 50 }), fc.double({ min: 0, max: 20, noNaN: true })), { minLength: 1, maxLength: 4 })
+      .array(fc.tuple(validLinkText, fc.integer({ min: 0, max: 50 }), fc.double({ min: 0, max: 20, noNaN: true }), classAccess, classMpdus), {
+        minLength: 1,
+        maxLength: 4,
+      })
       .map((rows) => (args: unknown[]) => {
         const out = [...args];
         out[at("links")] = rows.map(([l]) => [l]);
         out[at("counts")] = rows.map(([, n]) => [n]);
         out[at("demands_mbps")] = rows.map(([, , d]) => [d]);
+        if (at("accesses") >= 0) out[at("accesses")] = rows.map(([, , , a]) => [a]);
+        if (at("mpdus") >= 0) out[at("mpdus")] = rows.map(([, , , , m]) => [m]);
         return out;
       });
   }

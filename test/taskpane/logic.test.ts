@@ -29,7 +29,34 @@ const METADATA: FunctionMetadata[] = [
     description: "Airtime of one multi-user exchange.",
     parameters: ["link", "users", "packet_bytes", "direction", "mpdus", "access", "mac_options"].map((name, i) => ({ name, optional: i > 2 })),
   },
+  {
+    id: "GOODPUT",
+    name: "GOODPUT",
+    description: "Packet-layer goodput of one station alone on the channel.",
+    parameters: ["link", "packet_bytes", "mpdus", "access", "protection", "mpdu_loss", "mac_options"].map((name) => ({ name })),
+  },
+  {
+    id: "SATURATE",
+    name: "SATURATE",
+    description: "Aggregate goodput of identical saturated stations.",
+    parameters: ["link", "stations", "packet_bytes", "mpdus", "access", "protection", "mac_options"].map((name) => ({ name })),
+  },
+  {
+    id: "CLIENTSHARE",
+    name: "CLIENTSHARE",
+    description: "Share of airtime one client needs.",
+    parameters: ["link", "demand_mbps", "packet_bytes", "stations", "access", "mac_options", "mpdus"].map((name) => ({ name })),
+  },
 ];
+
+/**
+ * OFDM 54 Mb/s at 5 GHz, 1500-octet packets, BE, CCMP-128, by hand (IEEE 802.11-2020 eq. (17-29), Table 9-155):
+ * ACCESS = AIFS 43 + mean backoff 67.5 + PPDU 252 + SIFS 16 + Ack 28 = 406.5 µs; goodput = 8 × 1500 ÷ 406.5 Mb/s.
+ */
+const OFDM54_ACCESS_us = 43 + 67.5 + 252 + 16 + 28;
+const OFDM54_GOODPUT_Mbps = (8 * 1500) / OFDM54_ACCESS_us;
+/** The TCP ACK's own access: a 94-octet MPDU, PPDU 20 + 4 × 4 = 36 µs; 43 + 67.5 + 36 + 16 + 28 = 190.5 µs. */
+const OFDM54_TCP_ACK_us = 43 + 67.5 + 36 + 16 + 28;
 
 describe("reference search", () => {
   it("finds a function by a word of its summary", () => {
@@ -172,8 +199,74 @@ describe("insert site budget", () => {
   });
 });
 
+describe("explain: result, resolved defaults and the chain to the result", () => {
+  const rowValue = (rows: (string | number)[][], label: RegExp) => rows.find((r) => label.test(String(r[0])))?.[1];
+
+  it("puts the cell's value first when the formula is the call alone", () => {
+    const x = explain(planExplanation('=AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz",1500)'), METADATA, new Map(), 29.52);
+    expect([x.result, x.resultNote]).toEqual([29.52, "the cell's value"]);
+  });
+
+  it("gives this call's result, not the cell's, when the formula does more", () => {
+    const x = explain(planExplanation('=2*AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz",1500)'), METADATA, new Map(), 59.04);
+    expect(x.result).toBeCloseTo(OFDM54_GOODPUT_Mbps, 10);
+    expect(x.resultNote).toMatch(/does more/);
+  });
+
+  it("shows the values the core applies for omitted arguments", () => {
+    const x = explain(planExplanation('=AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz",1500)'), METADATA, new Map());
+    const used = Object.fromEntries(x.inputs.map((i) => [i.name, i.used]));
+    // OFDM has no A-MPDU: AGGCOUNT is 1 (IEEE 802.11-2020: A-MPDU needs HT or later); BE, no protection, no loss
+    expect(used).toMatchObject({ mpdus: "auto = 1 (AGGCOUNT)", access: "BE", protection: "none", mpdu_loss: 0 });
+    expect(String(used.mac_options)).toMatch(/CCMP-128/);
+  });
+
+  it("takes an empty referenced cell as omitted and shows its default", () => {
+    const plan = planExplanation('=AIRTALLY.CLIENTSHARE("OFDM 54Mbps 5GHz",10,B1)');
+    const x = explain(plan, METADATA, new Map([["B1", [[""]]]]));
+    expect(x.inputs.find((i) => i.name === "packet_bytes")!.used).toBe(1500);
+  });
+
+  it("writes GOODPUT's arithmetic from the breakdown: bits ÷ ACCESS µs, the hand value last", () => {
+    const x = explain(planExplanation('=AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz",1500)'), METADATA, new Map());
+    expect(rowValue(x.chain!, /^packet bits per access/)).toBe(8 * 1500);
+    expect(rowValue(x.chain!, /^one channel access/)).toBeCloseTo(OFDM54_ACCESS_us, 9);
+    expect(x.table![x.table!.length - 1][1]).toBeCloseTo(OFDM54_ACCESS_us, 9); // the BREAKDOWN total the chain starts from
+    expect(x.chain![x.chain!.length - 1]).toEqual(["GOODPUT (Mb/s)", expect.closeTo(OFDM54_GOODPUT_Mbps, 10)]);
+  });
+
+  it("adds the TCP ACK access to the chain when mac_options says TCP", () => {
+    const x = explain(planExplanation('=AIRTALLY.GOODPUT("OFDM 54Mbps 5GHz",1500,,,,,"TCP")'), METADATA, new Map());
+    expect(rowValue(x.chain!, /^TCP ACK access/)).toBeCloseTo(OFDM54_TCP_ACK_us, 9);
+    // 2 segments: 2 × 12 000 bits ÷ (2 × 406.5 + 190.5) µs
+    expect(x.chain![x.chain!.length - 1][1]).toBeCloseTo((2 * 8 * 1500) / (2 * OFDM54_ACCESS_us + OFDM54_TCP_ACK_us), 10);
+  });
+
+  it("writes SATURATE's arithmetic: bits ÷ (success time ÷ (1 − contention share)) equals the result", () => {
+    const x = explain(planExplanation('=AIRTALLY.SATURATE("OFDM 54Mbps 5GHz",10,1500)'), METADATA, new Map());
+    const viaChain = rowValue(x.chain!, /^aggregate goodput = /) as number;
+    const result = x.chain![x.chain!.length - 1];
+    expect(result[0]).toBe("SATURATE (Mb/s)");
+    expect(viaChain).toBeCloseTo(result[1] as number, 9);
+    // the success time is ACCESS without its mean backoff: 406.5 − 67.5 µs
+    expect(rowValue(x.chain!, /^less the mean backoff/)).toBeCloseTo(OFDM54_ACCESS_us - 67.5, 9);
+  });
+
+  it("writes CLIENTSHARE's arithmetic: demand ÷ goodput, the hand value last", () => {
+    const x = explain(planExplanation('=AIRTALLY.CLIENTSHARE("OFDM 54Mbps 5GHz",10)'), METADATA, new Map());
+    expect(x.chain![x.chain!.length - 1][1]).toBeCloseTo(10 / OFDM54_GOODPUT_Mbps, 12);
+    expect(x.result).toBeCloseTo(10 / OFDM54_GOODPUT_Mbps, 12);
+  });
+
+  it("shows no chain when the inputs are refused, and says why", () => {
+    const x = explain(planExplanation('=AIRTALLY.GOODPUT("OFDM 55Mbps 5GHz",1500)'), METADATA, new Map());
+    expect(x.chain).toBeUndefined();
+    expect(x.message).toMatch(/^The breakdown could not be computed/);
+  });
+});
+
 describe("explain this cell (Excel glue)", () => {
-  function mockCell(formula: unknown, refs: Record<string, unknown[][]>) {
+  function mockCell(formula: unknown, refs: Record<string, unknown[][]>, cellValue: unknown = 0) {
     const worksheet = {
       ranges: Object.fromEntries(Object.entries(refs).map(([a, values]) => [a, { values }])),
       getRange(address: string) {
@@ -181,7 +274,7 @@ describe("explain this cell (Excel glue)", () => {
       },
     };
     const mock = new OfficeMockObject({
-      context: { workbook: { cell: { address: "Plan!C3", formulas: [[formula]], worksheet }, getActiveCell() { return (this as { cell: unknown }).cell; } } },
+      context: { workbook: { cell: { address: "Plan!C3", formulas: [[formula]], values: [[cellValue]], worksheet }, getActiveCell() { return (this as { cell: unknown }).cell; } } },
       run: async function (batch: (context: unknown) => Promise<unknown>) {
         return batch((this as { context: unknown }).context);
       },
@@ -193,6 +286,12 @@ describe("explain this cell (Excel glue)", () => {
     const excel = mockCell("=AIRTALLY.TXTIME(B1,B2)", { B1: [["OFDM 6Mbps 5GHz"]], B2: [[100]] });
     const { explanation } = await explainActiveCell(excel, METADATA);
     expect([explanation.inputs.map((i) => i.value), explanation.table![explanation.table!.length - 1][1]]).toEqual([["OFDM 6Mbps 5GHz", 100], TXTIME_OFDM6_100]);
+  });
+
+  it("reads the cell's own value as the result", async () => {
+    const excel = mockCell("=AIRTALLY.TXTIME(B1,B2)", { B1: [["OFDM 6Mbps 5GHz"]], B2: [[100]] }, TXTIME_OFDM6_100);
+    const { explanation } = await explainActiveCell(excel, METADATA);
+    expect([explanation.result, explanation.resultNote]).toEqual([TXTIME_OFDM6_100, "the cell's value"]);
   });
 
   it("explains that a native formula is not Airtally's", async () => {

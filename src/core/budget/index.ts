@@ -8,3 +8,4 @@ export { radios, DEFAULT_MAX_UTILIZATION } from "./radios";
 export { beaconShare, beaconAirtime, beaconParts, defaultBeaconBytes, BEACON_PARTS, TU_us, DEFAULT_INTERVAL_TU, BEACON_ACCESS, BEACON_MAC_OPTIONS } from "./beacon";
 export type { BeaconAirtime, BeaconElement, BeaconApFamily } from "./beacon";
 export { clientShare, mixShare, DEFAULT_PACKET_BYTES, DEFAULT_STATIONS } from "./share";
+export { saturationGoodputTcpMbps, dataOnlyMacOptions } from "./tcp";

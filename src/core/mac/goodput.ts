@@ -23,6 +23,9 @@
  *     E[bytes] = (1 − p^R) × packet bytes × MSDUs per MPDU
  *   goodput = 8 × E[bytes] ÷ E[time]. At p = 0 both models give the lossless
  *   packet bytes × MSDUs × MPDUs × 8 ÷ ACCESS.
+ *
+ * With `TCP` in mac_options the receiver's TCP acknowledgements take
+ * accesses of their own on the reverse link (tcp.ts).
  */
 import { invalid } from "../errors";
 import { integerInRange, isMissing, describe } from "../args";
@@ -30,6 +33,7 @@ import type { MbPerSecond, Microseconds } from "../units";
 import { rateMbps } from "../phy";
 import { accessFor, resolveMpdus, type ChannelAccess } from "./access";
 import { exchangeContext, usesBlockAck } from "./exchange";
+import { withTcpAcks } from "./tcp";
 
 /** mpdu_loss: a share in [0, 1); empty → 0. */
 export function parseMpduLoss(value: unknown): number {
@@ -84,7 +88,7 @@ export function goodputMbps(
   const ctx = exchangeContext(link, packetBytes, access, protection, macOptions);
   const n = resolveMpdus(ctx, mpdus);
   const p = parseMpduLoss(mpduLoss);
-  return goodputFor(accessFor(ctx, n), p);
+  return withTcpAcks(ctx, goodputFor(accessFor(ctx, n), p));
 }
 
 /** EFFICIENCY (catalog): GOODPUT ÷ RATE, a share 0..1. */

@@ -28,3 +28,5 @@ export { aPPDUMaxTime_us } from "./timing";
 export { aggCount, type AggregationLimit } from "./aggregation";
 export { channelAccess, type AccessTerm, type ChannelAccess } from "./access";
 export { goodputMbps, efficiency, expectedTransmissions, parseMpduLoss } from "./goodput";
+export { tcpAckAccessUs, withTcpAcks, withoutTcpText, tcpAckSegments, TCP_ACK_PACKET_octets, DEFAULT_TCP_ACK_SEGMENTS } from "./tcp";
+export { exchangeContext, type ExchangeContext } from "./exchange";

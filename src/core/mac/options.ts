@@ -48,6 +48,10 @@ export interface MacOptions {
   readonly retryLimit: number | null;
   /** Multi-user exchanges (src/core/mu): acknowledgements asked by a MU-BAR trigger instead of a trigger carried in the PPDU. */
   readonly muBar: boolean;
+  /** TCP flow: count the receiver's TCP acknowledgements as accesses of their own (tcp.ts). */
+  readonly tcp: boolean;
+  /** TCP segments per acknowledgement (TCPACK=n); null = 2, delayed ACKs (tcp.ts). */
+  readonly tcpAckSegments: number | null;
 }
 
 export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
@@ -65,6 +69,8 @@ export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
   htc: false,
   retryLimit: null,
   muBar: false,
+  tcp: false,
+  tcpAckSegments: null,
 });
 
 /** Rates a basic rate set may hold: Clause 15/16 DSSS/HR-DSSS and Clause 17/18 OFDM rates, Mb/s. */
@@ -88,9 +94,11 @@ const BA_WINDOW_MAX = 1024;
 export const AMPDU_EXPONENT_MAX = 11;
 const AMSDU_MAX = 64;
 const RETRY_MAX = 255;
+/** TCPACK: far above any receiver's ACK pacing (RFC 5681 asks for at least every second full-sized segment). */
+const TCPACK_MAX = 64;
 
 const VALID_TEXT =
-  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC, RETRY=n or MUBAR";
+  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC, RETRY=n, MUBAR, TCP or TCPACK=n";
 
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
@@ -154,6 +162,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
     if (t === "AP") { setOnce(o, seen, "ap", true, raw); continue; }
     if (t === "HTC") { setOnce(o, seen, "htc", true, raw); continue; }
     if (t === "MUBAR") { setOnce(o, seen, "muBar", true, raw); continue; }
+    if (t === "TCP") { setOnce(o, seen, "tcp", true, raw); continue; }
     const m = t.match(/^([A-Z]+)=(.*)$/);
     if (!m) invalid(`mac_options: unknown setting "${raw}"; ${VALID_TEXT}`);
     const [, key, value] = m;
@@ -166,6 +175,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
       case "CWMIN": setOnce(o, seen, "cwMin", contentionWindow("CWMIN", value), raw); break;
       case "CWMAX": setOnce(o, seen, "cwMax", contentionWindow("CWMAX", value), raw); break;
       case "RETRY": setOnce(o, seen, "retryLimit", wholeSetting("RETRY", value, 1, RETRY_MAX, "attempts"), raw); break;
+      case "TCPACK": setOnce(o, seen, "tcpAckSegments", wholeSetting("TCPACK", value, 1, TCPACK_MAX, "segments"), raw); break;
       case "SLOT": {
         if (value !== "9" && value !== "20") invalid(`mac_options: SLOT= must be 9 or 20 (µs), got "${value}"`);
         setOnce(o, seen, "slotUs", Number(value) as 9 | 20, raw);
@@ -184,6 +194,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
     if (o.basicRatesMbps.length === 0) invalid(`mac_options: BASIC= needs at least one rate, e.g. BASIC=6,12,24`);
     o.basicRatesMbps = [...new Set(o.basicRatesMbps)].sort((a, b) => a - b);
   }
+  if (o.tcpAckSegments !== null && !o.tcp) invalid(`mac_options: TCPACK=${o.tcpAckSegments} sets the TCP acknowledgement pacing; add TCP to count the acknowledgements`);
   if (o.aifsn === 1 && !o.ap) invalid(`mac_options: AIFSN=1 is for an AP only (a non-AP station uses AIFSN 2 or more); add AP or use AIFSN=2…15`);
   if (o.cwMin !== null && o.cwMax !== null && o.cwMin > o.cwMax) {
     invalid(`mac_options: CWMIN=${o.cwMin} is above CWMAX=${o.cwMax}; CWmin must not exceed CWmax`);

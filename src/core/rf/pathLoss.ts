@@ -14,6 +14,7 @@ import { invalid } from "../errors";
 import type { Db, Dbm, MHz, Meters } from "../units";
 import { atLeast, atMost, nonNegative, optionalNumber, positive, wholeNonNegative } from "./_lib";
 import { P1238_EDITION, officeFloorLossDb } from "./p1238";
+import { wallsLossDb } from "./walls";
 
 /** Speed of light in vacuum, m/s (exact by the SI definition of the metre). */
 export const SPEED_OF_LIGHT_m_per_s = 299_792_458;
@@ -67,6 +68,8 @@ interface IndoorModel {
   readonly floors: number;
   /** L_f(n), dB: Table 3's office value, or floors × floor_loss_db when that is given. */
   readonly floorPenetrationDb: Db;
+  /** walls × wall_loss_db (walls.ts), dB; 0 with no walls. */
+  readonly wallsDb: Db;
 }
 
 /** Guards, not model limits: no building has more floors; no floor takes more loss. */
@@ -87,13 +90,19 @@ function belowModel(d: number): never {
   invalid(`distance_m: the P.1238 model holds from ${P1238_MIN_DISTANCE_m} m, got ${d}`);
 }
 
-function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, floorLossDb: unknown): IndoorModel {
+function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, floorLossDb: unknown, walls: unknown, wallLossDb: unknown): IndoorModel {
   const f = finiteNumber("freq_mhz", freqMHz);
   if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) outsideBands(f);
   const n = optionalNumber("distance_power", distancePower, DEFAULT_DISTANCE_POWER);
   if (!(n > 0 && n <= 100)) badDistancePower(n);
   const nFloors = atMost("floors", wholeNonNegative("floors", optionalNumber("floors", floors, 0)), INDOOR_MAX_FLOORS, "");
-  return { freqMHz: f, distancePower: n, floors: nFloors, floorPenetrationDb: floorPenetrationDb(f, nFloors, floorLossDb) };
+  return {
+    freqMHz: f,
+    distancePower: n,
+    floors: nFloors,
+    floorPenetrationDb: floorPenetrationDb(f, nFloors, floorLossDb),
+    wallsDb: wallsLossDb(f, walls, wallLossDb),
+  };
 }
 
 /**
@@ -110,14 +119,16 @@ function floorPenetrationDb(freqMHz: number, floors: number, floorLossDb: unknow
   return floors * perFloor;
 }
 
-/** 20·log10(f) − 28 + L_f(n): every term of eq. (1) except the distance term, dB. */
+/** 20·log10(f) − 28 + L_f(n) + walls × wall loss: every term except the distance term, dB. */
 function lossAtOneMetreDb(model: IndoorModel): Db {
-  return 20 * Math.log10(model.freqMHz) + P1238_CONSTANT_dB + model.floorPenetrationDb;
+  return 20 * Math.log10(model.freqMHz) + P1238_CONSTANT_dB + model.floorPenetrationDb + model.wallsDb;
 }
 
 /**
  * INDOORLOSS: ITU-R P.1238-7 site-general indoor path loss, dB (eq. (1)
- * above) with L_f(n) from Table 3 (office) or floors × floor_loss_db.
+ * above) with L_f(n) from Table 3 (office) or floors × floor_loss_db, plus
+ * walls × wall_loss_db (walls.ts; the default per-wall loss is common
+ * practice for a plasterboard partition).
  *
  * Planning estimate only (see the module note): not a replacement for a site
  * survey; local regulations, codes and licensed practice decide.
@@ -130,10 +141,12 @@ export function indoorLossDb(
   distancePower?: unknown,
   floors?: unknown,
   floorLossDb?: unknown,
+  walls?: unknown,
+  wallLossDb?: unknown,
 ): Db {
   const d = atMost("distance_m", finiteNumber("distance_m", distanceM), INDOOR_MAX_DISTANCE_m, "m");
   if (d < P1238_MIN_DISTANCE_m) belowModel(d);
-  const model = readModel(freqMHz, distancePower, floors, floorLossDb);
+  const model = readModel(freqMHz, distancePower, floors, floorLossDb, walls, wallLossDb);
   return lossAtOneMetreDb(model) + model.distancePower * Math.log10(d);
 }
 
@@ -141,7 +154,7 @@ export function indoorLossDb(
  * REACH: the distance, m, at which the received level falls to `target_dbm`
  * under INDOORLOSS — eq. (1) solved for d:
  *   target = eirp + rx_gain − L_total(d)
- *   d = 10^((eirp + rx_gain − target − 20·log10(f) + 28 − L_f(n)) ÷ N)
+ *   d = 10^((eirp + rx_gain − target − 20·log10(f) + 28 − L_f(n) − walls × wall_loss) ÷ N)
  * When the target is above the level received at 1 m (where the model
  * starts), there is no distance: #VALUE! ("target_dbm above the signal at 1 m").
  *
@@ -160,10 +173,12 @@ export function reachM(
   floors?: unknown,
   floorLossDb?: unknown,
   rxGainDbi?: unknown,
+  walls?: unknown,
+  wallLossDb?: unknown,
 ): Meters {
   const eirp: Dbm = numberInRange("eirp_dbm", eirpDbm, -LEVEL_LIMIT_dB, LEVEL_LIMIT_dB, "dBm");
   const target: Dbm = numberInRange("target_dbm", targetDbm, -LEVEL_LIMIT_dB, LEVEL_LIMIT_dB, "dBm");
-  const model = readModel(freqMHz, distancePower, floors, floorLossDb);
+  const model = readModel(freqMHz, distancePower, floors, floorLossDb, walls, wallLossDb);
   const rxGain: Db = isMissing(rxGainDbi) ? 0 : numberInRange("rx_gain_dbi", rxGainDbi, -LEVEL_LIMIT_dB, LEVEL_LIMIT_dB, "dBi");
   const atOneMetre: Dbm = eirp + rxGain - lossAtOneMetreDb(model);
   if (target > atOneMetre) {

@@ -49,6 +49,47 @@ describe("CLIENTSHARE", () => {
   });
 });
 
+/**
+ * Voice: one 200-octet packet per AC_VO access, OFDM 54 Mb/s at 5 GHz, CCMP-128, by hand:
+ *   MPDU = 26 + 8 + 200 + 8 + 8 + 4 = 254 octets
+ *   PPDU = 20 + 4 × ceil((16 + 8 × 254 + 6) ÷ 216) = 20 + 4 × 10 = 60 µs   (IEEE 802.11-2020 eq. (17-29))
+ *   AIFS[VO] = SIFS 16 + AIFSN 2 × 9 = 34 µs; mean backoff CWmin 3 ÷ 2 × 9 = 13.5 µs   (Table 9-155, non-AP STA)
+ *   ACCESS = 34 + 13.5 + 60 + SIFS 16 + Ack 28 = 151.5 µs
+ *   goodput = 8 × 200 ÷ 151.5 = 10.56 Mb/s; 0.1 Mb/s needs 0.1 ÷ 10.56 = 0.00947 of the airtime
+ */
+const OFDM54_VOICE_GOODPUT_Mbps = (8 * 200) / (34 + 13.5 + 60 + 16 + 28);
+
+describe("CLIENTSHARE with mpdus (one packet per access)", () => {
+  it("is demand ÷ GOODPUT(link, 200, 1, VO) exactly for a voice client (issue 15 acceptance)", () => {
+    const link = "HE MCS7 2SS 40MHz 5GHz";
+    expect(clientShare(link, 0.1, 200, 1, "VO", null, 1)).toBe(0.1 / goodputMbps(link, 200, 1, "VO"));
+  });
+
+  it("matches the hand-derived voice access at OFDM 54 Mb/s", () => {
+    expect(clientShare("OFDM 54Mbps 5GHz", 0.1, 200, 1, "VO", null, 1)).toBeCloseTo(0.1 / OFDM54_VOICE_GOODPUT_Mbps, 12);
+  });
+
+  it("charges a one-packet-per-access class far more than the same demand in full A-MPDUs", () => {
+    const link = "HE MCS7 2SS 40MHz 5GHz";
+    // At 200 octets "auto" packs hundreds of MPDUs per access; one per access pays AIFS, backoff, preamble and Ack per packet.
+    expect(clientShare(link, 0.1, 200, 1, "VO", null, 1)).toBeGreaterThan(5 * clientShare(link, 0.1, 200, 1, "VO", null, "auto"));
+  });
+
+  it("treats an omitted or blank mpdus as auto", () => {
+    const link = "HE MCS7 2SS 40MHz 5GHz";
+    expect(clientShare(link, 2, 1500, 1, "BE", null, null)).toBe(clientShare(link, 2, 1500, 1, "BE", null, "auto"));
+  });
+
+  it("passes mpdus to SATURATE with several stations", () => {
+    const link = "HE MCS7 2SS 40MHz 5GHz";
+    expect(clientShare(link, 0.1, 200, 10, "VO", null, 1)).toBe(0.1 / saturationGoodputMbps(link, 10, 200, 1, "VO", null, null));
+  });
+
+  it("refuses more MPDUs than fit, naming mpdus", () => {
+    expectValueError(() => clientShare("OFDM 54Mbps 5GHz", 1, 1500, 1, "BE", null, 2), "mpdus");
+  });
+});
+
 describe("MIXSHARE", () => {
   const A = "OFDM 54Mbps 5GHz";
   const B = "VHT MCS9 2SS 80MHz 5GHz";
@@ -94,6 +135,37 @@ describe("MIXSHARE", () => {
 
   it("names the item of a bad link", () => {
     expect(() => mixShare([[A], ["OFDM 55Mbps"]], [[10], [3]], [[2], [5]])).toThrow(/^links: item 2: link:/);
+  });
+
+  it("charges each class with its own access category and MPDUs per access", () => {
+    // 10 data clients (BE, auto) + 4 voice handsets (VO, one packet per access)
+    const expected = 10 * clientShare(B, 2, 1500, 1, "BE", null, "auto") + 4 * clientShare(B, 0.1, 1500, 1, "VO", null, 1);
+    expect(mixShare([[B], [B]], [[10], [4]], [[2], [0.1]], null, null, [["BE"], ["VO"]], [["auto"], [1]])).toBeCloseTo(expected, 12);
+  });
+
+  it("matches the hand-derived voice access for a voice-only mix", () => {
+    // 5 handsets × 0.1 Mb/s ÷ 10.56 Mb/s (200-octet packets, one per VO access)
+    expect(mixShare([[A]], [[5]], [[0.1]], 200, 1, [["VO"]], [[1]])).toBeCloseTo((5 * 0.1) / OFDM54_VOICE_GOODPUT_Mbps, 12);
+  });
+
+  it("takes BE and auto for blank accesses and mpdus cells", () => {
+    expect(mixShare([[A], [B]], [[10], [2]], [[2], [20]], null, null, [[""], [null]], [[null], [""]])).toBe(mixShare([[A], [B]], [[10], [2]], [[2], [20]]));
+  });
+
+  it("refuses an accesses range of a different size", () => {
+    expectValueError(() => mixShare([[A], [B]], [[10], [2]], [[2], [20]], null, null, [["VO"]]), "accesses");
+  });
+
+  it("refuses an mpdus range of a different size", () => {
+    expectValueError(() => mixShare([[A], [B]], [[10], [2]], [[2], [20]], null, null, null, [[1], [1], [1]]), "mpdus");
+  });
+
+  it("names the item of a bad access category, even in a row with no clients", () => {
+    expect(() => mixShare([[A], [B]], [[10], [0]], [[2], [0]], null, null, [["BE"], ["V0"]])).toThrow(/^accesses: item 2: access:/);
+  });
+
+  it("names the item of a bad MPDU count", () => {
+    expect(() => mixShare([[A], [B]], [[10], [2]], [[2], [20]], null, null, null, [[2], [1]])).toThrow(/^mpdus: item 1: mpdus:/);
   });
 
   it("refuses a negative count", () => {
