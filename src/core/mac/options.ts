@@ -46,6 +46,12 @@ export interface MacOptions {
   readonly htc: boolean;
   /** Transmission attempts before an MPDU is dropped; null = dot11ShortRetryLimit 7. */
   readonly retryLimit: number | null;
+  /**
+   * After a missed BlockAck, send a BlockAckReq in a channel access of its own
+   * (its BlockAck resets CW) instead of retransmitting the MPDUs in the next
+   * A-MPDU (the default). 10.25.6 (block ack procedures; clause from memory).
+   */
+  readonly blockAckReq: boolean;
 }
 
 export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
@@ -62,6 +68,7 @@ export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
   basicRatesMbps: null,
   htc: false,
   retryLimit: null,
+  blockAckReq: false,
 });
 
 /** Rates a basic rate set may hold: Clause 15/16 DSSS/HR-DSSS and Clause 17/18 OFDM rates, Mb/s. */
@@ -87,7 +94,7 @@ const AMSDU_MAX = 64;
 const RETRY_MAX = 255;
 
 const VALID_TEXT =
-  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC or RETRY=n";
+  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC, RETRY=n or BAR";
 
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
@@ -150,6 +157,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
     }
     if (t === "AP") { setOnce(o, seen, "ap", true, raw); continue; }
     if (t === "HTC") { setOnce(o, seen, "htc", true, raw); continue; }
+    if (t === "BAR") { setOnce(o, seen, "blockAckReq", true, raw); continue; }
     const m = t.match(/^([A-Z]+)=(.*)$/);
     if (!m) invalid(`mac_options: unknown setting "${raw}"; ${VALID_TEXT}`);
     const [, key, value] = m;

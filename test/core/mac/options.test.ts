@@ -18,6 +18,9 @@ describe("mac_options parsing (DESIGN.md §2)", () => {
     const o = parseMacOptions("BA=32 AMPDU=2 AIFSN=4 CWMIN=7 CWMAX=255 RETRY=4");
     expect([o.baWindow, o.ampduExponent, o.aifsn, o.cwMin, o.cwMax, o.retryLimit]).toEqual([32, 2, 4, 7, 255, 4]);
   });
+  it("reads BAR (BlockAckReq recovery after a missed BlockAck), off by default", () => {
+    expect([DEFAULT_MAC_OPTIONS.blockAckReq, parseMacOptions("bar").blockAckReq]).toEqual([false, true]);
+  });
   it("refuses an unknown setting and lists the valid ones", () => {
     expectValueError(() => parseMacOptions("WEP"), /^mac_options: unknown setting "WEP"; use CCMP-128/);
   });
