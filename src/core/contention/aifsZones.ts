@@ -25,33 +25,42 @@
  * states: the mean-field decoupling is only across stations, not in time.
  *
  * State at the start of an idle period (zone 0): the kind of the last busy
- * period — a success of class a (S_a), or a collision (C) — and, for every
- * station, its counter, independent across stations with distributions
+ * period — a success of class a (S_a), or a collision of the pair (a, b)
+ * (C_ab; collisions of three or more are shared out over the pairs in
+ * proportion) — and, for every station, its counter, independent across
+ * stations with distributions
  *   F^S_c   uniform on 0…CWmin_c             (the station that just succeeded)
  *   F^C_c   Σ_i π_i·uniform on 0…W_next(i)−1 (a collider; π_i ∝ p_c^i, i = 0…m;
  *                                             W_next = W_{i+1}, or W_0 after a drop)
- *   R_c     the residual of a listener      (solved for)
+ *   R_c     the law of a listener           (solved for)
+ * After C_ab zone 0 is the longer collider's PPDU end + timeout + AIFS_min;
+ * the shorter collider resumes after its own timeout or the end of the
+ * longer PPDU, whichever is later (so it may start zones early), and the
+ * listeners EIFS − DIFS after the PPDU (10.3.2.3.7).
  * Group g (count n_g, offset o_g, counter law D_g): it sends at zone t with
  * P_g(t) = D_g(t − o_g); given silence before t its hazard is
  * h_g(t) = P_g(t) ÷ S_g(t−1), S_g the survival. With A(t) = Π_g S_g(t−1)^{n_g}:
  *   P(idle at t)          = A(t)·Π_g (1 − h_g)^{n_g}
  *   P(class c alone at t) = A(t)·Σ_{g∈c} n_g h_g (1 − h_g)^{n_g − 1}·Π_{g'≠g} (1 − h_{g'})^{n_{g'}}
- *   collisions: the rest; their length is the longest colliding PPDU + its timeout
- *               (classes sorted by that length, as "nobody longer sends" products)
- * A listener that did not send at t keeps k' = k − (t − o_g + 1) (EDCA) or
- * k − (t − o_g) (DCF) for t ≥ o_g, k' = k before its zone; the new R_c is the
- * average of these laws over states and t, weighted by how many listeners
- * and fresh stations of class c end up there. The kind of the next busy
- * period gives the transition matrix of the state chain; its stationary law
- * weights the cycle times and successes:
+ *   collisions: the rest; their length is the longest colliding PPDU (classes
+ *               sorted by it, as "nobody longer sends" products)
+ * A station that did not send at t keeps k' = k − (t − o_g + 1) (EDCA) or
+ * k − (t − o_g) (DCF) for t ≥ o_g, k' = k before its zone. R_c is the
+ * stationary law of a listener's counter: its entries are the counters of
+ * stations that had just sent and did not send at the next busy period,
+ * and it moves down by the decrements its environment (the others' first
+ * busy zone) deals it, computed in one pass from the top counter down
+ * (listenerLaw). The kind of the next busy period gives the transition
+ * matrix of the state chain; its stationary law weights the cycle times
+ * and successes:
  *   cycle = t·σ + (success exchange, or PPDU + timeout) + AIFS_min
  *   S_c   = Σ_states π·P(data success of c)·payload_c ÷ Σ_states π·E[cycle]     (Mb/s)
  *   p_c   = collided attempts of class c ÷ attempts of class c
- * A collision's colliders are taken as the expected number per class (a
- * fractional exponent). BlockAckReq recovery: a collider's next attempt is a
- * BlockAckReq; listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of
- * their attempts. The whole is iterated to a fixed point (at most 400
- * sweeps, to 1e-10 on every p_c and R_c). With one class EDCAMIX uses
+ * BlockAckReq recovery: a collider's next attempt is a BlockAckReq;
+ * listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of
+ * their attempts. The whole is iterated to a fixed point (at most 200
+ * sweeps, until no p_c and no entry of R_c moves by 1e-6; the goodputs then
+ * sit within about 1e-5 of the limit). With one class EDCAMIX uses
  * saturation.ts, which SATURATE uses.
  */
 import type { ContentionChannel, ContentionClass } from "./parameters";
@@ -75,10 +84,10 @@ export interface MixResult {
   readonly residual: number;
 }
 
-const SWEEP_LIMIT = 400;
-const SWEEP_TOLERANCE = 1e-9;
+const SWEEP_LIMIT = 200;
+const SWEEP_TOLERANCE = 1e-6;
 /** Zones are followed until the chance that nobody has sent falls below this. */
-const HORIZON_EPSILON = 1e-13;
+const HORIZON_EPSILON = 1e-10;
 /** A counter law's tail below this is taken as spent. */
 const TAIL_EPSILON = 1e-15;
 
@@ -105,6 +114,10 @@ interface Group {
   readonly listener: boolean;
 }
 
+/** Share of the listeners' environment that may be left out at its far end. */
+const ENV_NEGLIGIBLE = 1e-12;
+/** A listener still silent with everybody else beyond this chance no longer shapes its environment. */
+const LISTENER_HORIZON = 1e-10;
 /** Relative zones r = t − o_g from −ENV_SHIFT on are kept in the listeners' environment. */
 const ENV_SHIFT = 64;
 
@@ -364,7 +377,7 @@ function listenersWaiting(groups: readonly Group[], aliveExcept: Float64Array, t
     if (!gr.listener) continue;
     const j = t - gr.offset;
     const still = j <= 0 ? 1 : tails[g][Math.min(j, gr.law.p.length)];
-    if (aliveExcept[g] * still > HORIZON_EPSILON) return true;
+    if (aliveExcept[g] * still > LISTENER_HORIZON) return true;
   }
   return false;
 }
@@ -382,8 +395,11 @@ function listenersWaiting(groups: readonly Group[], aliveExcept: Float64Array, t
 function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean): Float64Array {
   const K = entries.length;
   const u = new Float64Array(K);
+  // The far end of the environment (the others silent for many zones) carries no weight worth a pass over every counter.
+  let mass = 0;
+  for (let r = 0; r < env.length; r++) mass += env[r];
   let reach = env.length - 1;
-  while (reach > 0 && env[reach] === 0) reach--;
+  for (let tail = 0; reach > 0 && tail + env[reach] <= ENV_NEGLIGIBLE * mass; reach--) tail += env[reach];
   let self = 0;
   for (let r = 0; r < ENV_SHIFT + (dcf ? 1 : 0); r++) self += env[r];
   const stay = Math.max(1e-12, 1 - self);
@@ -493,8 +509,37 @@ function stateLeadUs(channel: ContentionChannel, state: number, space: StateSpac
   return ca.collisionPpduUs >= cb.collisionPpduUs ? ca.responseTimeoutUs : cb.responseTimeoutUs;
 }
 
-/** Solve the multi-class model. Inputs are assumed already checked. */
+/** Every setting of a class but its name and station count: classes with the same key are the same stations. */
+function settingsKey(c: ContentionClass): string {
+  const bar = c.blockAckReq === null ? "" : `${c.blockAckReq.successUs}/${c.blockAckReq.collisionPpduUs}`;
+  return [c.aifsn, c.cwMin, c.cwMax, c.retryLimit, c.countdown, c.successUs, c.collisionPpduUs, c.responseTimeoutUs, c.payloadBits, bar].join("|");
+}
+
+/**
+ * Solve the multi-class model. Inputs are assumed already checked. Classes
+ * with the same settings (the same access category given twice) are solved
+ * as one and shared out by stations: their stations are alike.
+ */
 export function edcaSaturation(channel: ContentionChannel): MixResult {
+  const keys = channel.classes.map(settingsKey);
+  const distinct = [...new Set(keys)];
+  if (distinct.length === channel.classes.length) return solveDistinct(channel);
+  const merged = distinct.map((k) => {
+    const members = channel.classes.filter((_, i) => keys[i] === k);
+    return { ...members[0], stations: members.reduce((a, c) => a + c.stations, 0) };
+  });
+  const solved = solveDistinct({ ...channel, classes: merged });
+  return {
+    ...solved,
+    classes: channel.classes.map((c, i) => {
+      const m = solved.classes[distinct.indexOf(keys[i])];
+      const share = c.stations / merged[distinct.indexOf(keys[i])].stations;
+      return { name: c.name, stations: c.stations, p: m.p, goodputMbps: m.goodputMbps * share, airtimeShare: m.airtimeShare * share };
+    }),
+  };
+}
+
+function solveDistinct(channel: ContentionChannel): MixResult {
   const classes = channel.classes;
   if (classes.length === 1) {
     const s = saturation(channel);
