@@ -7,7 +7,7 @@
  *   CONTENTION  contentionShare(link, stations, packet_bytes, …)
  *   EDCAMIX     edcaMix(link, access_list, counts, packet_bytes, …)
  */
-import { AirtallyError, invalid } from "../errors";
+import { AirtallyError, invalid, noAnswer } from "../errors";
 import { describe, integerInRange, isMissing } from "../args";
 import type { MbPerSecond, Share } from "../units";
 import { parseAccess } from "../mac";
@@ -15,6 +15,7 @@ import { fixedPoint } from "./bianchi";
 import { saturation, type Saturation } from "./saturation";
 import { edcaSaturation } from "./aifsZones";
 import { contentionChannel } from "./fromLink";
+import type { ContentionClass } from "./parameters";
 
 /** The model is solved for 1 to 1000 stations (DESIGN.md §2; issue 4). */
 export const STATIONS_MAX = 1000;
@@ -44,6 +45,31 @@ export function collisionProbability(stations: unknown, cwMin?: unknown, cwMax?:
   if (lo > hi) invalid(`cwmin: ${lo} is above cwmax ${hi}; the contention window grows from CWmin up to CWmax`);
   const r = isMissing(retryLimit) ? 7 : integerInRange("retry_limit", retryLimit, 1, RETRY_LIMIT_MAX, "attempts");
   return fixedPoint(n, lo, hi, r).p;
+}
+
+/**
+ * Where the models stop holding, measured against the simulator
+ * (scripts/contention-sweep.ts; DEVELOPERS.md): when nearly every attempt
+ * collides (p above 0.9: e.g. 15 saturated VO stations, CW 3…7, fall 12 %, 500
+ * BE stations 18 %, 50 VI stations 46 % below it) the attempts are no longer
+ * independent as the models assume; with BlockAckReq recovery and small windows
+ * (CWmax under 63) beyond p = 0.5 a BlockAckReq that collided with a long
+ * A-MPDU resumes first and mostly wins, which the model leaves out. There
+ * the functions answer #N/A rather than a wrong number.
+ */
+const P_MODEL_MAX = 0.9;
+const P_MODEL_MAX_BAR_SMALL_WINDOW = 0.5;
+const SMALL_WINDOW_CWMAX = 63;
+
+function outsideModel(cls: ContentionClass, p: number): boolean {
+  if (p > P_MODEL_MAX) return true;
+  return cls.blockAckReq !== null && cls.cwMax < SMALL_WINDOW_CWMAX && p > P_MODEL_MAX_BAR_SMALL_WINDOW;
+}
+
+function refuseCrowd(arg: string, stations: number, name: string, p: number): never {
+  return noAnswer(
+    `${arg}: ${stations} saturated ${name} stations collide on ${(100 * p).toFixed(0)} % of their attempts, beyond the range where the contention model agrees with a simulation of the standard's rules; use fewer stations, a wider window (CWMIN=, CWMAX=) or the simulator (npm run simulate)`,
+  );
 }
 
 const SATURATION_CACHE_LIMIT = 1024;
@@ -76,6 +102,7 @@ function saturationOf(
   const n = checkStations(stations);
   const channel = contentionChannel(link, [{ access, stations: n }], packetBytes, mpdus, protection, macOptions);
   const result = saturation(channel);
+  if (outsideModel(channel.classes[0], result.p)) refuseCrowd("stations", n, channel.classes[0].name, result.p);
   if (key !== null) {
     if (saturationCache.size >= SATURATION_CACHE_LIMIT) saturationCache.delete(saturationCache.keys().next().value as string);
     saturationCache.set(key, result);
@@ -208,6 +235,9 @@ export function edcaMix(
   const present = mix.filter((c) => c.stations > 0);
   const channel = contentionChannel(link, present, packetBytes, mpdus, protection, macOptions);
   const solved = edcaSaturation(channel).classes;
+  solved.forEach((r, i) => {
+    if (outsideModel(channel.classes[i], r.p)) refuseCrowd("counts", r.stations, r.name, r.p);
+  });
   let k = 0;
   return mix.map((c) => {
     if (c.stations === 0) return { access: c.access, stations: 0, goodputMbps: 0, perStationMbps: 0, airtimeShare: 0 };
