@@ -88,7 +88,7 @@ export const SAMPLES: Record<string, Sample[]> = {
   ],
   CLIENTSHARE: [
     { args: ["HE MCS7 2SS 40MHz", 5, null, null, null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5) },
-    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 20, "VI", null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 20, "VI") },
+    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 8, "VI", null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 8, "VI") },
   ],
   MIXSHARE: [
     {
