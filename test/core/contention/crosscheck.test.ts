@@ -17,6 +17,7 @@ import { edcaSaturation } from "../../../src/core/contention/aifsZones";
 import { contentionChannel } from "../../../src/core/contention/fromLink";
 import { simulate, type SimulationResult } from "../../../src/core/contention/simulator";
 import type { ContentionChannel } from "../../../src/core/contention/parameters";
+import { collisionProbability } from "../../../src/core/contention/catalog";
 
 const SEEDS = [11, 12];
 
@@ -56,6 +57,22 @@ describe("SATURATE's model against the simulator", () => {
         expect(Math.abs(model.contentionShare - sim.share)).toBeLessThanOrEqual(0.02);
       });
     }
+  }
+});
+
+describe("COLLIDE against the simulator", () => {
+  // COLLIDE has no link: the EDCA countdown with every station back on the same grid after a collision
+  // (EIFS − DIFS equal to the timeout). 5 GHz slot and SIFS (IEEE 802.11-2020 Table 17-21), CW 15…1023, 7 attempts.
+  for (const n of [2, 10, 50]) {
+    it(`gives the simulated collision probability of ${n} stations within 0.02`, () => {
+      const channel: ContentionChannel = {
+        slotUs: 9,
+        sifsUs: 16,
+        eifsExtraUs: 50,
+        classes: [{ name: "BE", stations: n, aifsn: 3, cwMin: 15, cwMax: 1023, retryLimit: 7, countdown: "EDCA", successUs: 300, collisionPpduUs: 250, responseTimeoutUs: 50, payloadBits: 12000, blockAckReq: null }],
+      };
+      expect(Math.abs(collisionProbability(n) - simulated(channel, 20_000).p[0])).toBeLessThanOrEqual(0.02);
+    });
   }
 });
 
