@@ -59,8 +59,9 @@
  * BlockAckReq recovery: a collider's next attempt is a BlockAckReq;
  * listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of
  * their attempts. The whole is iterated to a fixed point (at most 200
- * sweeps, until no p_c and no entry of R_c moves by 1e-6; the goodputs then
- * sit within about 1e-5 of the limit). With one class EDCAMIX uses
+ * sweeps, until the distance left, estimated from the contraction between
+ * sweeps, is below 1e-6 on every p_c and entry of R_c; or until a work limit,
+ * after which the catalog refuses an estimate above 1e-4). With one class EDCAMIX uses
  * saturation.ts, which SATURATE uses.
  */
 import type { ContentionChannel, ContentionClass } from "./parameters";
@@ -80,12 +81,14 @@ export interface MixResult {
   readonly classes: readonly ClassResult[];
   /** 1 − the data successes' share of airtime. */
   readonly contentionShare: number;
-  /** Largest change of a p_c in the last sweep (a convergence check). */
+  /** Estimated distance left to the fixed point on p_c and the listener laws (a convergence check). */
   readonly residual: number;
 }
 
 const SWEEP_LIMIT = 200;
 const SWEEP_TOLERANCE = 1e-6;
+/** The contraction rate assumed at most when estimating the distance left to the fixed point. */
+const RHO_MAX = 0.999;
 /** Zones are followed until the chance that nobody has sent falls below this. */
 const HORIZON_EPSILON = 1e-10;
 /** A counter law's tail below this is taken as spent. */
@@ -112,6 +115,20 @@ interface Group {
   readonly bar: number;
   /** Listeners (their law is R_c) rather than stations that have just sent. */
   readonly listener: boolean;
+}
+
+/** Zones of a listener's environment followed one by one (the rest is folded into the last). */
+const REACH_MAX = 192;
+/**
+ * Work allowed for one solution, in inner-loop steps (about 15 ms on one idle
+ * core; the mixes of the acceptance grid need at most 0.8e6): the fixed point stops there, and if it has not settled to
+ * RESIDUAL_ACCEPTED the catalog answers #N/A rather than an unsettled number.
+ */
+const WORK_LIMIT = 1.2e6;
+export const RESIDUAL_ACCEPTED = 1e-4;
+
+interface Work {
+  done: number;
 }
 
 /** Share of the listeners' environment that may be left out at its far end. */
@@ -215,7 +232,7 @@ interface StateOutcome {
  * itself and AIFS_min); zone t lies t·σ after zone 0 (t may be negative for a
  * collider that resumes before the reference).
  */
-function runState(channel: ContentionChannel, groups: readonly Group[], order: readonly number[], space: StateSpace, aifsMin: number): StateOutcome {
+function runState(channel: ContentionChannel, groups: readonly Group[], order: readonly number[], space: StateSpace, aifsMin: number, work: Work): StateOutcome {
   const classes = channel.classes;
   const C = classes.length;
   const G = groups.length;
@@ -244,6 +261,7 @@ function runState(channel: ContentionChannel, groups: readonly Group[], order: r
   const last = Math.max(...groups.map((g) => g.offset + g.law.p.length));
   for (let t = first; t <= last && (alive > HORIZON_EPSILON || listenersWaiting(groups, aliveExcept, tails, t)); t++) {
     let allSilent = 1;
+    work.done += 8 * (G * G + 4 * G);
     for (let g = 0; g < G; g++) {
       const gr = groups[g];
       const j = t - gr.offset;
@@ -392,14 +410,23 @@ function listenersWaiting(groups: readonly Group[], aliveExcept: Float64Array, t
  * r = 0) leaving k unchanged. A listener with counter j sends at r = j and
  * leaves. Computed from the top counter down; R_c = U ÷ Σ U.
  */
-function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean): Float64Array {
+function listenerLaw(entries: Float64Array, envIn: Float64Array, dcf: boolean, work: Work): Float64Array {
   const K = entries.length;
   const u = new Float64Array(K);
-  // The far end of the environment (the others silent for many zones) carries no weight worth a pass over every counter.
+  // The far end of the environment (the others silent for many zones) carries no weight worth a pass over
+  // every counter: below ENV_NEGLIGIBLE it is dropped, beyond REACH_MAX zones it is folded into the last one
+  // (such a listener is taken to lose REACH_MAX + 1 of its count, not more).
   let mass = 0;
-  for (let r = 0; r < env.length; r++) mass += env[r];
-  let reach = env.length - 1;
-  for (let tail = 0; reach > 0 && tail + env[reach] <= ENV_NEGLIGIBLE * mass; reach--) tail += env[reach];
+  for (let r = 0; r < envIn.length; r++) mass += envIn[r];
+  let reach = envIn.length - 1;
+  for (let tail = 0; reach > 0 && tail + envIn[reach] <= ENV_NEGLIGIBLE * mass; reach--) tail += envIn[reach];
+  let env = envIn;
+  if (reach > ENV_SHIFT + REACH_MAX) {
+    env = envIn.slice(0, ENV_SHIFT + REACH_MAX + 1);
+    for (let r = ENV_SHIFT + REACH_MAX + 1; r <= reach; r++) env[ENV_SHIFT + REACH_MAX] += envIn[r];
+    reach = ENV_SHIFT + REACH_MAX;
+  }
+  work.done += K * Math.max(1, reach - ENV_SHIFT);
   let self = 0;
   for (let r = 0; r < ENV_SHIFT + (dcf ? 1 : 0); r++) self += env[r];
   const stay = Math.max(1e-12, 1 - self);
@@ -408,7 +435,7 @@ function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean): Fl
     let inflow = entries[k];
     // From j = k + d: EDCA r = d − 1 ≥ 0; DCF r = d ≥ 1 (and only k ≥ 1 is reachable).
     if (!dcf || k >= 1) {
-      const top = Math.min(K - 1, k + reach - ENV_SHIFT + 1);
+      const top = Math.min(K - 1, k + reach - ENV_SHIFT + (dcf ? 0 : 1)); // env index ENV_SHIFT + r ≤ reach
       for (let j = k + 1; j <= top; j++) inflow += u[j] * env[ENV_SHIFT + (dcf ? j - k : j - k - 1)];
     }
     u[k] = inflow / stay;
@@ -562,7 +589,9 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   let pi: Float64Array = new Float64Array(space.count);
   let outcomes: StateOutcome[] = [];
   let residual = Infinity;
-  for (let sweep = 0; sweep < SWEEP_LIMIT && residual > SWEEP_TOLERANCE; sweep++) {
+  let lastMoved = 0;
+  const work: Work = { done: 0 };
+  for (let sweep = 0; sweep < SWEEP_LIMIT && !(residual <= SWEEP_TOLERANCE) && work.done < WORK_LIMIT; sweep++) {
     const laws: Laws = {
       fresh,
       listener: listener.map((l) => lawOf(l, null)),
@@ -570,8 +599,10 @@ function solveDistinct(channel: ContentionChannel): MixResult {
       bar: classes.map((c, i) => barShare(c, p[i])),
     };
     outcomes = [];
+    // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
+    for (const c of classes) work.done += (c.cwMax + 1) * (4 * space.count + 8);
     for (let s = 0; s < space.count; s++) {
-      const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin);
+      const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work);
       outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
     }
     pi = stationary(outcomes.map((o) => o.next));
@@ -598,14 +629,18 @@ function solveDistinct(channel: ContentionChannel): MixResult {
       });
       if (weight <= 0) return listener[i];
       for (let k = 0; k < env.length; k++) env[k] /= weight;
-      const law = listenerLaw(entries, env, c.countdown === "DCF");
+      const law = listenerLaw(entries, env, c.countdown === "DCF", work);
       for (let k = 0; k < law.length; k++) moved = Math.max(moved, Math.abs(law[k] - listener[i][k]));
       return law;
     });
     for (let c = 0; c < C; c++) moved = Math.max(moved, Math.abs(nextP[c] - p[c]));
     p = nextP;
     listener = nextListener;
-    residual = moved;
+    // A slow fixed point moves little per sweep while still far off: estimate the distance left from the
+    // contraction seen between sweeps, |x_k − x*| ≈ moved·ρ ÷ (1 − ρ), ρ = moved_k ÷ moved_(k−1).
+    const rho = lastMoved > 0 ? Math.min(RHO_MAX, moved / lastMoved) : RHO_MAX;
+    residual = sweep < 2 ? Infinity : (moved * rho) / (1 - rho);
+    lastMoved = moved;
   }
   let cycleUs = 0;
   outcomes.forEach((o, s) => (cycleUs += pi[s] * o.cycleUs));

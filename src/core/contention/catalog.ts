@@ -13,7 +13,7 @@ import type { MbPerSecond, Share } from "../units";
 import { parseAccess } from "../mac";
 import { fixedPoint } from "./bianchi";
 import { saturation, type Saturation } from "./saturation";
-import { edcaSaturation } from "./aifsZones";
+import { edcaSaturation, RESIDUAL_ACCEPTED } from "./aifsZones";
 import { contentionChannel } from "./fromLink";
 import type { ContentionClass } from "./parameters";
 
@@ -234,7 +234,11 @@ export function edcaMix(
   const mix = mixOf(accessList, counts);
   const present = mix.filter((c) => c.stations > 0);
   const channel = contentionChannel(link, present, packetBytes, mpdus, protection, macOptions);
-  const solved = edcaSaturation(channel).classes;
+  const mixResult = edcaSaturation(channel);
+  if (!(mixResult.residual <= RESIDUAL_ACCEPTED)) {
+    noAnswer(`counts: this mix of ${present.length} classes and ${present.reduce((a, c) => a + c.stations, 0)} stations did not settle within the model's work limit; use fewer classes or stations, or the simulator (npm run simulate)`);
+  }
+  const solved = mixResult.classes;
   solved.forEach((r, i) => {
     if (outsideModel(channel.classes[i], r.p)) refuseCrowd("counts", r.stations, r.name, r.p);
   });
