@@ -43,6 +43,9 @@ const SATURATE_CASES: [string, string, string | number, string, string][] = [
   ["HE MCS7 1SS 20MHz 5GHz", "BE", "auto", "none", "BAR"],
   ["HE MCS7 1SS 20MHz 5GHz", "BE", "auto", "RTS", "BAR"],
   ["HT MCS7 1SS 20MHz 2.4GHz", "BE", 16, "none", "BAR"],
+  ["HR-DSSS 11Mbps 2.4GHz", "DCF", 1, "none", ""],
+  ["HE MCS11 2SS 80MHz 5GHz", "BK", "auto", "none", "BAR"],
+  ["VHT MCS9 2SS 80MHz 5GHz", "BE", "auto", "CTS", ""],
 ];
 
 describe("SATURATE's model against the simulator", () => {
