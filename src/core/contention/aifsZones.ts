@@ -120,11 +120,11 @@ interface Group {
 /** Zones of a listener's environment followed one by one (beyond, a geometric tail of the same mass). */
 const REACH_MAX = 24;
 /**
- * Work allowed for one solution, in inner-loop steps (at most about 30 ms on one idle
- * core; the mixes of the acceptance grid need at most 2.4e6): the fixed point stops there, and if it has not settled to
+ * Work allowed for one solution, in inner-loop steps (at most about 10 ms on one idle
+ * core, so that a loaded machine stays far from the 50 ms call guard; 1–2 VI + 20 BE need about 2e6 and are refused): the fixed point stops there, and if it has not settled to
  * RESIDUAL_ACCEPTED the catalog answers #N/A rather than an unsettled number.
  */
-const WORK_LIMIT = 3e6;
+const WORK_LIMIT = 1.2e6;
 export const RESIDUAL_ACCEPTED = 1e-4;
 
 interface Work {
@@ -216,8 +216,11 @@ interface StateOutcome {
   readonly dataSuccess: Float64Array;
   readonly attempts: Float64Array;
   readonly collided: Float64Array;
-  /** Counters (unnormalised) of the stations that had just sent and did not send again: they join the listeners. */
-  readonly residual: Float64Array[];
+  /**
+   * Counters (unnormalised) of the stations that had just sent and did not send again — they join the
+   * listeners — as difference arrays per class (the caller's buffers, reused across sweeps).
+   */
+  readonly residualDiff: Float64Array[];
   /**
    * The listeners' environment per class: Σ_g n_g·P(the others' first busy zone is o_g + r), r from −ENV_SHIFT,
    * and Σ_g n_g (listeners of the class in this state).
@@ -232,7 +235,15 @@ interface StateOutcome {
  * itself and AIFS_min); zone t lies t·σ after zone 0 (t may be negative for a
  * collider that resumes before the reference).
  */
-function runState(channel: ContentionChannel, groups: readonly Group[], order: readonly number[], space: StateSpace, aifsMin: number, work: Work): StateOutcome {
+function runState(
+  channel: ContentionChannel,
+  groups: readonly Group[],
+  order: readonly number[],
+  space: StateSpace,
+  aifsMin: number,
+  work: Work,
+  diff: Float64Array[],
+): StateOutcome {
   const classes = channel.classes;
   const C = classes.length;
   const G = groups.length;
@@ -241,15 +252,15 @@ function runState(channel: ContentionChannel, groups: readonly Group[], order: r
   const dataSuccess = new Float64Array(C);
   const attempts = new Float64Array(C);
   const collided = new Float64Array(C);
-  const residual = classes.map((c) => new Float64Array(c.cwMax + 1));
-  const envLength = ENV_SHIFT + Math.max(...classes.map((c) => c.cwMax + 1)) + 1;
+  // Zones −ENV_SHIFT … REACH_MAX + 1 one by one, and the mass of all later zones in the last slot (listenerLaw).
+  const envLength = ENV_SHIFT + REACH_MAX + 3;
   const env = classes.map(() => new Float64Array(envLength));
   const envWeight = new Float64Array(C);
   for (const gr of groups) if (gr.listener) envWeight[gr.cls] += gr.count;
   const aliveExcept = new Float64Array(G).fill(1); // P(all but one station of g silent before t)
   // Tail sums T_g(j) = P(k ≥ j): the survival S_g(t − 1) = T_g(t − o_g), exact (no running product to drift).
   const tails = groups.map((gr) => gr.law.tails);
-  const diff = classes.map((c) => new Float64Array(c.cwMax + 2)); // difference arrays of `residual`
+  for (const d of diff) d.fill(0);
   const h = new Float64Array(G);
   const silentG = new Float64Array(G); // (1 − h_g)^{n_g}
   const loneG = new Float64Array(G); // n_g h_g (1 − h_g)^{n_g − 1}
@@ -368,14 +379,10 @@ function runState(channel: ContentionChannel, groups: readonly Group[], order: r
       const stays = 1 - h[g];
       const others = stays > 0 ? allSilent / stays : gr.count > 1 ? 0 : othersOf(silentG, allSilent, g);
       const r = t - gr.offset + ENV_SHIFT;
-      if (r >= 0 && r < envLength) env[gr.cls][r] += gr.count * aliveExcept[g] * (1 - others);
+      if (r >= 0) env[gr.cls][Math.min(r, envLength - 1)] += gr.count * aliveExcept[g] * (1 - others);
       aliveExcept[g] *= others;
     }
     alive *= allSilent;
-  }
-  for (let c = 0; c < C; c++) {
-    let run = 0;
-    for (let k = 0; k < residual[c].length; k++) residual[c][k] = run += diff[c][k];
   }
   // Normalise the next-state law (the horizon leaves at most HORIZON_EPSILON unaccounted).
   const total = next.reduce((a, b) => a + b, 0);
@@ -385,7 +392,7 @@ function runState(channel: ContentionChannel, groups: readonly Group[], order: r
     attempts[c] /= total;
     collided[c] /= total;
   }
-  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residual, env, envWeight };
+  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight };
 }
 
 /** Some listener may still be silent, with the others silent too, at zone t (its environment still matters). */
@@ -598,6 +605,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   let outcomes: StateOutcome[] = [];
   let residual = Infinity;
   let lastMoved = 0;
+  const buffers = Array.from({ length: space.count }, () => classes.map((c) => new Float64Array(c.cwMax + 2)));
   const work: Work = { done: 0 };
   for (let sweep = 0; sweep < SWEEP_LIMIT && !(residual <= SWEEP_TOLERANCE) && work.done < WORK_LIMIT; sweep++) {
     const laws: Laws = {
@@ -608,9 +616,9 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     };
     outcomes = [];
     // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
-    for (const c of classes) work.done += (c.cwMax + 1) * (4 * space.count + 8);
+    for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
     for (let s = 0; s < space.count; s++) {
-      const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work);
+      const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers[s]);
       outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
     }
     pi = stationary(outcomes.map((o) => o.next));
@@ -629,13 +637,14 @@ function solveDistinct(channel: ContentionChannel): MixResult {
       const env = new Float64Array(outcomes[0].env[i].length);
       let weight = 0;
       outcomes.forEach((o, s) => {
-        const r = o.residual[i];
+        const r = o.residualDiff[i];
         for (let k = 0; k < entries.length; k++) entries[k] += pi[s] * r[k];
         const e = o.env[i];
         for (let k = 0; k < env.length; k++) env[k] += pi[s] * e[k];
         weight += pi[s] * o.envWeight[i];
       });
       if (weight <= 0) return listener[i];
+      for (let k = 1; k < entries.length; k++) entries[k] += entries[k - 1]; // prefix sums of the difference arrays
       for (let k = 0; k < env.length; k++) env[k] /= weight;
       const law = listenerLaw(entries, env, c.countdown === "DCF", work);
       for (let k = 0; k < law.length; k++) moved = Math.max(moved, Math.abs(law[k] - listener[i][k]));
