@@ -90,7 +90,7 @@ const SWEEP_TOLERANCE = 1e-6;
 /** The contraction rate assumed at most when estimating the distance left to the fixed point. */
 const RHO_MAX = 0.999;
 /** Zones are followed until the chance that nobody has sent falls below this. */
-const HORIZON_EPSILON = 1e-10;
+const HORIZON_EPSILON = 1e-8;
 /** A counter law's tail below this is taken as spent. */
 const TAIL_EPSILON = 1e-15;
 
@@ -134,7 +134,7 @@ interface Work {
 /** Share of the listeners' environment that may be left out at its far end. */
 const ENV_NEGLIGIBLE = 1e-12;
 /** A listener still silent with everybody else beyond this chance no longer shapes its environment. */
-const LISTENER_HORIZON = 1e-10;
+const LISTENER_HORIZON = 1e-8;
 /** Relative zones r = t − o_g from −ENV_SHIFT on are kept in the listeners' environment. */
 const ENV_SHIFT = 64;
 
@@ -384,6 +384,8 @@ function runState(
     }
     alive *= allSilent;
   }
+  // The listeners' environment beyond the horizon: the others are still silent, and will send later.
+  for (let g = 0; g < G; g++) if (groups[g].listener) env[groups[g].cls][envLength - 1] += groups[g].count * aliveExcept[g];
   // Normalise the next-state law (the horizon leaves at most HORIZON_EPSILON unaccounted).
   const total = next.reduce((a, b) => a + b, 0);
   for (let i = 0; i < next.length; i++) next[i] /= total;

@@ -179,6 +179,10 @@ describe("EDCAMIX", () => {
   it("refuses counts that add up to 0", () => valueError(() => edcaMix(HE, "VO, BE", [[0, 0]], 1500), "counts"));
   it("refuses counts that add up to more than 1000", () => valueError(() => edcaMix(HE, "VO, BE", [[600, 600]], 1500), "counts"));
   it("refuses a missing access list", () => valueError(() => edcaMix(HE, null, [[2]], 1500), "access_list"));
+  // Long windows on both sides drain slowly: the fixed point is stopped by its work limit and, unsettled, refused.
+  it("answers #N/A naming counts when the mix does not settle within the model's work limit", () => {
+    expect(() => edcaMix(HE, "BE, BK", "20, 12", 1500)).toThrow(/^counts: .*did not settle/);
+  });
   it("refuses BAR when a class is DCF", () => valueError(() => edcaMix(HE, "VO, DCF", "1, 1", 1500, "auto", "none", "BAR"), "mac_options"));
 
   it("gives best effort less with BAR when it shares the channel with voice", () => {
