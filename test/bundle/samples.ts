@@ -99,7 +99,7 @@ export const SAMPLES: Record<string, Sample[]> = {
   ],
   CLIENTSHARE: [
     { args: ["HE MCS7 2SS 40MHz", 5, null, null, null, null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5) },
-    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 20, "VI", null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 20, "VI") },
+    { args: ["HE MCS7 2SS 40MHz", 5, 1500, 8, "VI", null, null], expected: () => budget.clientShare("HE MCS7 2SS 40MHz", 5, 1500, 8, "VI") },
     // Issue 15 acceptance: a voice client, one 200-octet packet per VO access = demand ÷ GOODPUT(link, 200, 1, "VO") exactly.
     { args: ["HE MCS7 2SS 40MHz", 0.1, 200, 1, "VO", null, 1], expected: () => 0.1 / mac.goodputMbps("HE MCS7 2SS 40MHz", 200, 1, "VO") },
   ],

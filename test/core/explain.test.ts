@@ -44,8 +44,8 @@ describe("resultChain", () => {
 
   it("reaches CLIENTSHARE of voice on a contended channel: demand ÷ SATURATE with one MPDU per access", () => {
     const link = "HE MCS7 2SS 40MHz 5GHz";
-    const rows = resultChain("CLIENTSHARE", { link, demand_mbps: 0.08, packet_bytes: 200, stations: 10, access: "VO", mpdus: 1 })!;
-    expect(rows[rows.length - 1][1]).toBe(clientShare(link, 0.08, 200, 10, "VO", null, 1));
+    const rows = resultChain("CLIENTSHARE", { link, demand_mbps: 0.08, packet_bytes: 200, stations: 4, access: "VO", mpdus: 1 })!;
+    expect(rows[rows.length - 1][1]).toBe(clientShare(link, 0.08, 200, 4, "VO", null, 1));
     // the step before is SATURATE's capacity: share × capacity = demand
     expect(rows[rows.length - 2][0]).toBe("SATURATE (Mb/s)");
     expect((rows[rows.length - 1][1] as number) * (rows[rows.length - 2][1] as number)).toBeCloseTo(0.08, 12);

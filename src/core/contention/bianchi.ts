@@ -1,6 +1,8 @@
 /**
- * Bianchi's saturation model of one class of identical stations, with a
- * finite retry limit.
+ * The backoff chain of Bianchi's saturation model, with a finite retry
+ * limit: the attempt probability τ(p), the (τ, p) fixed point that COLLIDE
+ * returns, and the bracketed root search every contention model uses.
+ * (saturation.ts builds the channel on it.)
  *
  * G. Bianchi, "Performance analysis of the IEEE 802.11 distributed
  * coordination function", IEEE JSAC 18(3), 2000, pp. 535–547: each of n
@@ -40,8 +42,6 @@
  * root, found by a bracketed search on p in [0, 1] (bracketedRoot) — it
  * cannot diverge or leave the interval. One station never collides: p = 0, τ = 2/(W+1) exactly.
  */
-import type { ContentionChannel, ContentionClass } from "./timing";
-import { aifsUs } from "./timing";
 
 /** Attempt probability τ(p) per generic slot, for CWmin, CWmax and a retry limit of `retryLimit` attempts (m = retryLimit − 1). */
 export function attemptProbability(p: number, cwMin: number, cwMax: number, retryLimit: number): number {
@@ -151,62 +151,4 @@ export function bracketedRoot(g: (x: number) => number, lo: number, gLo: number,
     }
   }
   return gLo === gHi ? lo : (lo * gHi - hi * gLo) / (gHi - gLo);
-}
-
-/** What one class alone on the channel does at saturation. */
-export interface Saturation extends FixedPoint {
-  /** P_tr: at least one station transmits in a generic slot. */
-  readonly transmitProbability: number;
-  /** P_s: a transmission is a success (exactly one transmitter). */
-  readonly successProbability: number;
-  /** T_s = successUs + AIFS, µs. */
-  readonly successSlotUs: number;
-  /** T_c = collisionUs + AIFS, µs. */
-  readonly collisionSlotUs: number;
-  /** E[slot] = (1−P_tr)σ + P_tr·P_s·T_s + P_tr(1−P_s)·T_c, µs. */
-  readonly meanSlotUs: number;
-  /** S = P_tr·P_s·E[payload] ÷ E[slot], Mb/s (bits per µs). */
-  readonly goodputMbps: number;
-  /** ((1−P_tr)σ + P_tr(1−P_s)·T_c) ÷ E[slot]: idle backoff slots and collisions (with their AIFS). */
-  readonly contentionShare: number;
-}
-
-/**
- * Bianchi's saturation throughput (his eq. (13)) for a channel of one class,
- * with EDCA timing: the AIFS after each busy period replaces his DIFS.
- *
- *   P_tr = 1 − (1−τ)^n                       P_tr·P_s = n·τ·(1−τ)^(n−1)
- *   T_s  = successUs + AIFS                   T_c = collisionUs + AIFS
- *   E[slot] = (1−P_tr)·σ + P_tr·P_s·T_s + P_tr·(1−P_s)·T_c
- *   S = P_tr·P_s·E[payload] ÷ E[slot]
- *
- * The share of airtime lost to contention counts the idle backoff slots and
- * whole collisions including their AIFS; the AIFS after a success counts as
- * part of that success, because a station alone on the channel pays it too.
- */
-export function saturation(channel: ContentionChannel): Saturation {
-  const cls: ContentionClass = channel.classes[0];
-  const n = cls.stations;
-  const { tau, p } = fixedPoint(n, cls.cwMin, cls.cwMax, cls.retryLimit);
-  const idle = n === 1 ? 1 - tau : Math.pow(1 - tau, n);
-  const transmit = 1 - idle;
-  const success = n === 1 ? tau : n * tau * Math.pow(1 - tau, n - 1);
-  const collision = Math.max(0, transmit - success);
-  const aifs = aifsUs(channel, cls);
-  const successSlotUs = cls.successUs + aifs;
-  const collisionSlotUs = cls.collisionUs + aifs;
-  const idleUs = idle * channel.slotUs;
-  const collisionUs = collision * collisionSlotUs;
-  const meanSlotUs = idleUs + success * successSlotUs + collisionUs;
-  return {
-    tau,
-    p,
-    transmitProbability: transmit,
-    successProbability: transmit > 0 ? success / transmit : 0,
-    successSlotUs,
-    collisionSlotUs,
-    meanSlotUs,
-    goodputMbps: (success * cls.payloadBits) / meanSlotUs,
-    contentionShare: (idleUs + collisionUs) / meanSlotUs,
-  };
 }

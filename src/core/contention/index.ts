@@ -1,30 +1,22 @@
 /**
  * Contention (DESIGN.md §2): what many saturated stations sharing one channel
- * pay in idle backoff slots and collisions.
- *
- *   COLLIDE     collisionProbability(stations, cwmin, cwmax, retry_limit)
- *   SATURATE    saturationGoodputMbps(link, stations, packet_bytes, …)
- *   CONTENTION  contentionShare(link, stations, packet_bytes, …)
- *   EDCAMIX     edcaMix(link, access_list, counts, packet_bytes, …)
- *
- * Models: bianchi.ts (one class; Bianchi 2000 with the finite retry limit of
- * Wu et al. 2002), edca.ts (several access categories; AIFS zones after
- * Robinson & Randhawa 2004), adapter.ts (link → timing), simulator.ts (a
- * seeded Monte Carlo written apart from the models, to check them).
+ * pay in idle backoff slots, collisions, EIFS and recovery.
  * The only barrel of src/core/contention.
+ *
+ *   catalog.ts     COLLIDE, SATURATE, CONTENTION, EDCAMIX (argument checks, memo, rows)
+ *   parameters.ts  the raw contention terms both sides take (countdown rule, timeouts, EIFS, BAR)
+ *   fromLink.ts    link + MAC settings → those terms
+ *   bianchi.ts     Bianchi's backoff chain with a retry limit; the bracketed root search
+ *   saturation.ts  one class: frozen counters, EIFS and BlockAckReq on a renewal chain
+ *   aifsZones.ts   several access categories: the EDCA countdown over AIFS zones
+ *   simulator.ts   a seeded Monte Carlo written from the standard's rules, to judge the models
  */
-import { AirtallyError, invalid } from "../errors";
-import { describe, integerInRange, isMissing } from "../args";
-import type { MbPerSecond, Share } from "../units";
-import { parseAccess } from "../mac";
-import { fixedPoint, saturation, type Saturation } from "./bianchi";
-import { edcaSaturation } from "./edca";
-import { contentionChannel } from "./adapter";
-
-export { attemptProbability, fixedPoint, saturation, type FixedPoint, type Saturation } from "./bianchi";
-export { edcaSaturation, type ClassResult, type MixResult } from "./edca";
-export { contentionChannel, classFromAccess, type ClassSpec } from "./adapter";
-export { aifsUs as classAifsUs, type ContentionChannel, type ContentionClass } from "./timing";
+export { collisionProbability, saturationGoodputMbps, contentionShare, edcaMix, STATIONS_MAX, type EdcaMixRow } from "./catalog";
+export { attemptProbability, fixedPoint, bracketedRoot, type FixedPoint } from "./bianchi";
+export { saturation, type Saturation } from "./saturation";
+export { edcaSaturation, type ClassResult, type MixResult } from "./aifsZones";
+export { contentionChannel, classFromAccess, type ClassSpec } from "./fromLink";
+export { aifsUs as classAifsUs, type ContentionChannel, type ContentionClass, type Countdown, type BlockAckRequestExchange } from "./parameters";
 export {
   simulate,
   mulberry32,
@@ -34,203 +26,3 @@ export {
   type SimulationResult,
   type SimulatedClass,
 } from "./simulator";
-
-/** The model is solved for 1 to 1000 stations (DESIGN.md §2; issue 4). */
-export const STATIONS_MAX = 1000;
-/** CW is 2^ECW − 1 with a 4-bit ECW (IEEE 802.11-2020 9.4.2.28; from memory): at most 32767. */
-const CW_MAX_VALUE = 32767;
-/** dot11ShortRetryLimit is 1…255 (Annex C; from memory). */
-const RETRY_LIMIT_MAX = 255;
-/** EDCAMIX takes up to this many classes (rows). */
-const MIX_CLASSES_MAX = 16;
-
-function checkStations(value: unknown, name = "stations"): number {
-  return integerInRange(name, value, 1, STATIONS_MAX, "stations");
-}
-
-/**
- * COLLIDE: the conditional collision probability p of Bianchi's saturation
- * model — the chance that an attempt meets another one — for `stations`
- * identical saturated stations with backoff from CWmin to CWmax and
- * `retryLimit` attempts per frame (bianchi.ts).
- *
- *   collisionProbability(1) → 0;   collisionProbability(10) → ≈ 0.39 (CW 15…1023, 7 attempts)
- */
-export function collisionProbability(stations: unknown, cwMin?: unknown, cwMax?: unknown, retryLimit?: unknown): number {
-  const n = checkStations(stations);
-  const lo = isMissing(cwMin) ? 15 : integerInRange("cwmin", cwMin, 0, CW_MAX_VALUE);
-  const hi = isMissing(cwMax) ? 1023 : integerInRange("cwmax", cwMax, 0, CW_MAX_VALUE);
-  if (lo > hi) invalid(`cwmin: ${lo} is above cwmax ${hi}; the contention window grows from CWmin up to CWmax`);
-  const r = isMissing(retryLimit) ? 7 : integerInRange("retry_limit", retryLimit, 1, RETRY_LIMIT_MAX, "attempts");
-  return fixedPoint(n, lo, hi, r).p;
-}
-
-const SATURATION_CACHE_LIMIT = 1024;
-const saturationCache = new Map<string, Saturation>();
-
-/** A memo key when every argument is a plain value (text, number, empty); else null. */
-function keyOf(args: readonly unknown[]): string | null {
-  let key = "";
-  for (const a of args) {
-    if (a === null || a === undefined) key += "\u0000";
-    else if (typeof a === "string" || typeof a === "number") key += (typeof a === "string" ? "s" : "n") + String(a);
-    else return null;
-    key += "\u0001";
-  }
-  return key;
-}
-
-function saturationOf(
-  link: unknown,
-  stations: unknown,
-  packetBytes: unknown,
-  mpdus: unknown,
-  access: unknown,
-  protection: unknown,
-  macOptions: unknown,
-): Saturation {
-  const key = keyOf([link, stations, packetBytes, mpdus, access, protection, macOptions]);
-  const hit = key === null ? undefined : saturationCache.get(key);
-  if (hit !== undefined) return hit;
-  const n = checkStations(stations);
-  const channel = contentionChannel(link, [{ access, stations: n }], packetBytes, mpdus, protection, macOptions);
-  const result = saturation(channel);
-  if (key !== null) {
-    if (saturationCache.size >= SATURATION_CACHE_LIMIT) saturationCache.delete(saturationCache.keys().next().value as string);
-    saturationCache.set(key, result);
-  }
-  return result;
-}
-
-/**
- * SATURATE: aggregate packet-layer goodput of `stations` identical saturated
- * stations, Mb/s — Bianchi's model with EDCA timing (AIFS for DIFS) and the
- * channel access of the MAC layer (A-MPDU, protection, Ack/BlockAck). For one
- * station it equals GOODPUT (mean backoff CWmin ÷ 2 slots, no loss).
- *
- *   saturationGoodputMbps("OFDM 54Mbps 5GHz", 10, 1500) → ≈ 26 Mb/s
- */
-export function saturationGoodputMbps(
-  link: unknown,
-  stations: unknown,
-  packetBytes: unknown,
-  mpdus?: unknown,
-  access?: unknown,
-  protection?: unknown,
-  macOptions?: unknown,
-): MbPerSecond {
-  return saturationOf(link, stations, packetBytes, mpdus, access, protection, macOptions).goodputMbps;
-}
-
-/**
- * CONTENTION: share of airtime spent in idle backoff slots and in collisions
- * (with the AIFS after them), 0…1; the AIFS after a success counts with the
- * success (bianchi.ts `saturation`).
- */
-export function contentionShare(
-  link: unknown,
-  stations: unknown,
-  packetBytes: unknown,
-  mpdus?: unknown,
-  access?: unknown,
-  protection?: unknown,
-  macOptions?: unknown,
-): Share {
-  return saturationOf(link, stations, packetBytes, mpdus, access, protection, macOptions).contentionShare;
-}
-
-export interface EdcaMixRow {
-  readonly access: string;
-  readonly stations: number;
-  /** Aggregate goodput of the class, Mb/s. */
-  readonly goodputMbps: number;
-  /** goodputMbps ÷ stations (0 for a class of 0 stations), Mb/s. */
-  readonly perStationMbps: number;
-  /** Share of airtime in the class's successful exchanges (with the AIFS after each), 0…1. */
-  readonly airtimeShare: number;
-}
-
-/** Cells of a range (row by row), or the items of a text list ("VO, BE" or "VO BE"). */
-function listOf(name: string, value: unknown): unknown[] {
-  if (Array.isArray(value)) {
-    const cells: unknown[] = [];
-    for (const row of value) {
-      if (Array.isArray(row)) cells.push(...row);
-      else cells.push(row);
-    }
-    return cells;
-  }
-  if (typeof value === "string" && !isMissing(value)) return value.split(/[\s,;]+/).filter((t) => t !== "");
-  if (typeof value === "number") return [value];
-  return invalid(`${name}: expected a range or a list such as "VO, BE", got ${describe(value)}`);
-}
-
-function countOf(value: unknown, i: number): number {
-  const v = typeof value === "string" && value.trim() !== "" ? Number(value) : value;
-  if (typeof v !== "number" || !Number.isInteger(v) || v < 0 || v > STATIONS_MAX) {
-    invalid(`counts: item ${i + 1} must be a whole number of stations from 0 to ${STATIONS_MAX}, got ${describe(value)}`);
-  }
-  return v;
-}
-
-/** Pairs (access category, stations) from the two ranges; empty pairs are skipped. */
-function mixOf(accessList: unknown, counts: unknown): { access: string; stations: number }[] {
-  if (isMissing(accessList)) invalid(`access_list: required; a range or list of access categories (BK, BE, VI, VO, DCF)`);
-  if (isMissing(counts)) invalid(`counts: required; one number of stations per access category in access_list`);
-  const acs = listOf("access_list", accessList);
-  const ns = listOf("counts", counts);
-  if (acs.length !== ns.length) {
-    invalid(`counts: ${ns.length} cells for ${acs.length} cells of access_list; give one count per access category (ranges of the same size)`);
-  }
-  const mix: { access: string; stations: number }[] = [];
-  for (let i = 0; i < acs.length; i++) {
-    if (isMissing(acs[i]) && isMissing(ns[i])) continue;
-    if (isMissing(acs[i])) invalid(`access_list: item ${i + 1} is empty but its count is ${describe(ns[i])}`);
-    let access: string;
-    try {
-      access = parseAccess(acs[i]);
-    } catch (e) {
-      if (!(e instanceof AirtallyError)) throw e;
-      return invalid(`access_list: item ${i + 1}: expected BK, BE, VI, VO or DCF, got ${describe(acs[i])}`);
-    }
-    if (isMissing(ns[i])) invalid(`counts: item ${i + 1} (${access}) is empty; give the number of stations`);
-    mix.push({ access, stations: countOf(ns[i], i) });
-  }
-  if (mix.length === 0) invalid(`access_list: no access categories given`);
-  if (mix.length > MIX_CLASSES_MAX) invalid(`access_list: at most ${MIX_CLASSES_MAX} classes, got ${mix.length}`);
-  const total = mix.reduce((s, c) => s + c.stations, 0);
-  if (total < 1 || total > STATIONS_MAX) {
-    invalid(`counts: the stations must add up to between 1 and ${STATIONS_MAX}, got ${total}`);
-  }
-  return mix;
-}
-
-/**
- * EDCAMIX: saturated stations of several access categories sharing one
- * channel, one row per class in the order given: access category, stations,
- * aggregate goodput (Mb/s), goodput per station (Mb/s), share of airtime.
- * Each class uses its own AIFSN, CWmin, CWmax, TXOP limit (hence its own
- * A-MPDU size when mpdus is "auto") and retry limit (edca.ts).
- *
- *   edcaMix("HE MCS7 1SS 20MHz 5GHz", [["VO"], ["BE"]], [[2], [8]], 1500)
- */
-export function edcaMix(
-  link: unknown,
-  accessList: unknown,
-  counts: unknown,
-  packetBytes: unknown,
-  mpdus?: unknown,
-  protection?: unknown,
-  macOptions?: unknown,
-): EdcaMixRow[] {
-  const mix = mixOf(accessList, counts);
-  const present = mix.filter((c) => c.stations > 0);
-  const channel = contentionChannel(link, present, packetBytes, mpdus, protection, macOptions);
-  const solved = edcaSaturation(channel).classes;
-  let k = 0;
-  return mix.map((c) => {
-    if (c.stations === 0) return { access: c.access, stations: 0, goodputMbps: 0, perStationMbps: 0, airtimeShare: 0 };
-    const r = solved[k++];
-    return { access: c.access, stations: c.stations, goodputMbps: r.goodputMbps, perStationMbps: r.goodputMbps / c.stations, airtimeShare: r.airtimeShare };
-  });
-}

@@ -1,27 +1,42 @@
 /**
- * A seeded, deterministic slot-level Monte Carlo of saturated DCF/EDCA
- * stations. It is written apart from the analytic model (it imports none of
- * it) so the two can check each other.
+ * A seeded, deterministic, event-driven Monte Carlo of saturated DCF/EDCA
+ * stations, written from the standard's rules and apart from the analytic
+ * models (it imports none of their code or algebra) so the two can check
+ * each other. Time is continuous (µs); each station keeps its own slot grid.
  *
- * Every station always has a frame waiting. Time runs in generic slots
- * (G. Bianchi, IEEE JSAC 18(3), 2000, §II–III): an idle slot lasts aSlotTime;
- * a slot with one transmitter lasts that class's success exchange, with two or
- * more the longest colliding exchange; every busy slot is followed by the
- * smallest AIFS of the classes present. A station of class c is frozen for
- * AIFSN_c − AIFSN_min further slots after every busy slot (its longer AIFS,
- * IEEE 802.11-2020 10.23.2; clause from memory) — a busy slot seen by a
- * station still frozen restarts its wait.
- *
- * In each generic slot in which it is not frozen a station transmits if its
- * backoff counter is 0 and otherwise counts it down by one — Bianchi's
- * counting (his Markov chain of §III). After a success, or after a collision
- * that used up the retry limit (the frame is dropped), the station starts a
- * new frame with CW = CWmin; after any other collision
- * CW ← min(2·(CW + 1) − 1, CWmax). A new counter is uniform on [0, CW]
- * (IEEE 802.11-2020 10.3.4.3 and 10.23.2; clause numbers from memory).
- *
- * The run is event-driven: rather than visit each idle slot it jumps to the
- * next slot in which some station's counter reaches 0.
+ * Rules (IEEE Std 802.11-2020; clause numbers from memory):
+ * - Every station always has a frame waiting (saturation). A new frame, or a
+ *   frame after a success, starts with CW = CWmin; after a collision
+ *   CW ← min(2·(CW + 1) − 1, CWmax); the counter is uniform on 0…CW
+ *   (10.3.4.3, 10.23.2.2). After `retryLimit` attempts the frame is dropped.
+ * - Grid: after the medium goes idle a station waits its IFS (below); its
+ *   slot boundaries are then resume + i·aSlotTime, i = 0, 1, … A station
+ *   whose counter is k sends at boundary k, under either countdown rule.
+ * - Frozen countdown: when another station's transmission starts at t, the
+ *   station counts the boundaries it passed before it could sense the medium
+ *   busy (those before t + aSlotTime/2, see below) and freezes the rest:
+ *     EDCA (10.23.2.4): every boundary from i = 0 on is a decrement — the
+ *       one at the end of AIFS, and the one at which the other station
+ *       starts, count;
+ *     DCF (10.3.4.3): only boundaries i ≥ 1 (the end of an idle slot after
+ *       DIFS) decrement; the counter is frozen at the DIFS boundary.
+ * - Sensing: a transmission that starts less than half a slot after another
+ *   one cannot have been sensed (aCCATime is about half of aSlotTime, e.g.
+ *   < 4 of 9 µs for OFDM, Table 17-21) and collides with it. On aligned grids
+ *   this is "the same slot boundary".
+ * - A lone transmission succeeds: everybody decodes its response and waits
+ *   AIFS[AC] (DIFS) after it.
+ * - A collision: each collider waits its response timeout (AckTimeout or
+ *   CTSTimeout, 10.3.2.9) after its own PPDU, and if the medium was busy
+ *   longer, until the end of the longest colliding PPDU; then its AIFS. Every
+ *   other station received a frame it could not decode and waits
+ *   EIFS − DIFS + AIFS[AC] after the end of the longest PPDU (10.3.2.3.7,
+ *   10.23.2.4).
+ * - BlockAckReq recovery (`blockAckReq` set): a collided A-MPDU is a missed
+ *   BlockAck; the station's next attempt, with the doubled window, is a
+ *   BlockAckReq (which may collide too, and then doubles again). The
+ *   BlockAck that answers it resets CW to CWmin, and the MPDUs go again in
+ *   the next A-MPDU. Without it the MPDUs go in the next A-MPDU at once.
  */
 import { invalid } from "../errors";
 
@@ -31,28 +46,36 @@ export interface SimulationClass {
   readonly aifsn: number;
   readonly cwMin: number;
   readonly cwMax: number;
-  /** Transmission attempts before the frame is dropped (dot11ShortRetryLimit), at least 1. */
+  /** Transmission attempts (data or BlockAckReq) before the frame is dropped, at least 1. */
   readonly retryLimit: number;
+  /** "DCF" or "EDCA" countdown rule. */
+  readonly countdown: string;
   /** Busy time of a success without the AIFS that follows, µs. */
   readonly successUs: number;
-  /** Busy time of a collision without the AIFS that follows, µs. */
-  readonly collisionUs: number;
+  /** Time a collider is on air, µs. */
+  readonly collisionPpduUs: number;
+  /** AckTimeout / CTSTimeout after a collider's PPDU, µs. */
+  readonly responseTimeoutUs: number;
   /** Payload bits per success. */
   readonly payloadBits: number;
+  /** BlockAckReq recovery: its exchange and its PPDU, µs; null = none. */
+  readonly blockAckReq: { readonly successUs: number; readonly collisionPpduUs: number } | null;
 }
 
 export interface SimulationParams {
   readonly slotUs: number;
   readonly sifsUs: number;
+  /** EIFS − DIFS, µs. */
+  readonly eifsExtraUs: number;
   readonly classes: readonly SimulationClass[];
 }
 
 export interface SimulationLength {
-  /** Stop after this many busy slots (transmissions or collisions). */
+  /** Stop after this many busy periods (transmissions or collisions). */
   readonly busySlots?: number;
   /** Stop once this much channel time has been simulated, µs. */
   readonly durationUs?: number;
-  /** Called with the fraction done (0…1) every `progressEvery` busy slots. */
+  /** Called with the fraction done (0…1) every `progressEvery` busy periods. */
   readonly onProgress?: (fraction: number) => void;
   readonly progressEvery?: number;
 }
@@ -60,15 +83,19 @@ export interface SimulationLength {
 export interface SimulatedClass {
   readonly name: string;
   readonly stations: number;
+  /** Attempts of every kind (data and BlockAckReq). */
   readonly attempts: number;
+  /** Data frames delivered. */
   readonly successes: number;
   readonly collisions: number;
   readonly drops: number;
+  /** BlockAckReq exchanges that got their BlockAck. */
+  readonly blockAckReqs: number;
   /** collided attempts ÷ attempts: the conditional collision probability. */
   readonly collisionProbability: number;
   /** Delivered payload ÷ simulated time, Mb/s. */
   readonly goodputMbps: number;
-  /** Time in this class's successes (with the AIFS after them) ÷ simulated time. */
+  /** Time in this class's data successes (with the AIFS after them) ÷ simulated time. */
   readonly airtimeShare: number;
 }
 
@@ -76,10 +103,9 @@ export interface SimulationResult {
   readonly seed: number;
   readonly durationUs: number;
   readonly busySlots: number;
-  readonly idleSlots: number;
   readonly classes: readonly SimulatedClass[];
   readonly goodputMbps: number;
-  /** Time in idle slots and collisions (with their AIFS) ÷ simulated time. */
+  /** 1 − the data successes' share (with their AIFS): idle slots, collisions, EIFS, BlockAckReq exchanges. */
   readonly contentionShare: number;
 }
 
@@ -102,103 +128,123 @@ export function simulate(params: SimulationParams, seed: number, length: Simulat
   checkParams(params, seed, length);
   const random = mulberry32(seed);
   const classes = params.classes;
-  const minAifsn = Math.min(...classes.map((c) => c.aifsn));
-  const aifsMinUs = params.sifsUs + minAifsn * params.slotUs;
+  const slot = params.slotUs;
+  const sensing = slot / 2;
+  const ifs = classes.map((c) => params.sifsUs + c.aifsn * slot);
 
-  // Flat per-station state.
   const cls: number[] = [];
   classes.forEach((c, i) => {
     for (let s = 0; s < c.stations; s++) cls.push(i);
   });
   const n = cls.length;
-  const frozen = cls.map((i) => classes[i].aifsn - minAifsn); // slots each must see idle after a busy slot
   const cw = cls.map((i) => classes[i].cwMin);
-  const retries = cls.map(() => 0);
-  const counter = cw.map((w) => Math.floor(random() * (w + 1)));
+  const tries = cls.map(() => 0);
+  const barPending = cls.map(() => false);
+  const counter = cw.map((w) => draw(w));
+  const resume = cls.map((i) => ifs[i]);
+  const dcf = classes.map((c) => c.countdown === "DCF");
 
   const attempts = classes.map(() => 0);
   const successes = classes.map(() => 0);
   const collided = classes.map(() => 0);
   const drops = classes.map(() => 0);
+  const bars = classes.map(() => 0);
   const successTimeUs = classes.map(() => 0);
-  let timeUs = 0;
-  let idleTimeUs = 0;
-  let collisionTimeUs = 0;
-  let idleSlots = 0;
+  let endUs = 0;
   let busySlots = 0;
 
   const maxBusy = length.busySlots ?? (length.durationUs === undefined ? DEFAULT_BUSY_SLOTS : Infinity);
   const maxTime = length.durationUs ?? Infinity;
   const every = Math.max(1, length.progressEvery ?? 10_000);
-  const transmitters: number[] = [];
+  const senders: number[] = [];
+  const start: number[] = cls.map(() => 0);
 
-  while (busySlots < maxBusy && timeUs < maxTime) {
-    // Each pass starts right after a busy slot (or at the start): station s is
-    // frozen for frozen[s] slots, then transmits after counter[s] more.
-    let next = Infinity;
+  function draw(w: number): number {
+    return Math.floor(random() * (w + 1));
+  }
+
+  function newFrame(s: number): void {
+    tries[s] = 0;
+    barPending[s] = false;
+    cw[s] = classes[cls[s]].cwMin;
+    counter[s] = draw(cw[s]);
+  }
+
+  while (busySlots < maxBusy && endUs < maxTime) {
+    let first = Infinity;
     for (let s = 0; s < n; s++) {
-      const wait = frozen[s] + counter[s];
-      if (wait < next) next = wait;
+      start[s] = resume[s] + counter[s] * slot;
+      if (start[s] < first) first = start[s];
     }
-    // `next` idle slots, then the busy slot.
-    transmitters.length = 0;
+    const sensed = first + sensing;
+    senders.length = 0;
     for (let s = 0; s < n; s++) {
-      const hold = frozen[s];
-      const wait = hold + counter[s];
-      if (wait === next) transmitters.push(s);
-      else if (next >= hold) counter[s] -= next - hold + 1; // idle active slots, then the busy one
+      if (start[s] < sensed) {
+        senders.push(s);
+        continue;
+      }
+      // Boundaries passed before the busy medium could be sensed.
+      if (resume[s] < sensed) {
+        const passed = Math.ceil((sensed - resume[s]) / slot);
+        counter[s] -= dcf[cls[s]] ? passed - 1 : passed;
+      }
     }
-    idleSlots += next;
-    idleTimeUs += next * params.slotUs;
-    timeUs += next * params.slotUs;
     busySlots++;
 
-    if (transmitters.length === 1) {
-      const s = transmitters[0];
+    if (senders.length === 1) {
+      const s = senders[0];
       const c = cls[s];
+      const k = classes[c];
       attempts[c]++;
-      successes[c]++;
-      const t = classes[c].successUs + aifsMinUs;
-      successTimeUs[c] += t;
-      timeUs += t;
-      newFrame(s);
+      const bar = barPending[s] && k.blockAckReq !== null;
+      const end = start[s] + (bar ? (k.blockAckReq as { successUs: number }).successUs : k.successUs);
+      if (bar) bars[c]++;
+      else {
+        successes[c]++;
+        successTimeUs[c] += k.successUs + ifs[c];
+      }
+      for (let o = 0; o < n; o++) resume[o] = end + ifs[cls[o]];
+      endUs = end + ifs[c];
+      newFrame(s); // the BlockAck resets CW: the MPDUs go again from CWmin
     } else {
       let longest = 0;
-      for (const s of transmitters) {
+      for (const s of senders) {
+        const k = classes[cls[s]];
+        const onAir = barPending[s] && k.blockAckReq !== null ? k.blockAckReq.collisionPpduUs : k.collisionPpduUs;
+        start[s] += onAir; // now the end of its PPDU
+        if (start[s] > longest) longest = start[s];
+      }
+      for (let o = 0; o < n; o++) resume[o] = longest + params.eifsExtraUs + ifs[cls[o]];
+      for (const s of senders) {
         const c = cls[s];
+        const k = classes[c];
         attempts[c]++;
         collided[c]++;
-        longest = Math.max(longest, classes[c].collisionUs);
-        if (retries[s] + 1 >= classes[c].retryLimit) {
+        resume[s] = Math.max(start[s] + k.responseTimeoutUs, longest) + ifs[c];
+        if (tries[s] + 1 >= k.retryLimit) {
           drops[c]++;
           newFrame(s);
         } else {
-          retries[s]++;
-          cw[s] = Math.min(2 * (cw[s] + 1) - 1, classes[c].cwMax);
-          counter[s] = Math.floor(random() * (cw[s] + 1));
+          tries[s]++;
+          if (k.blockAckReq !== null) barPending[s] = true;
+          cw[s] = Math.min(2 * (cw[s] + 1) - 1, k.cwMax);
+          counter[s] = draw(cw[s]);
         }
       }
-      collisionTimeUs += longest + aifsMinUs;
-      timeUs += longest + aifsMinUs;
+      endUs = longest + params.eifsExtraUs + Math.min(...ifs);
     }
-    if (length.onProgress && busySlots % every === 0 && busySlots < maxBusy && timeUs < maxTime) {
-      length.onProgress(Math.min(1, Math.max(busySlots / maxBusy, timeUs / maxTime)));
+    if (length.onProgress && busySlots % every === 0 && busySlots < maxBusy && endUs < maxTime) {
+      length.onProgress(Math.min(1, Math.max(busySlots / maxBusy, endUs / maxTime)));
     }
   }
   if (length.onProgress) length.onProgress(1);
 
-  function newFrame(s: number): void {
-    retries[s] = 0;
-    cw[s] = classes[cls[s]].cwMin;
-    counter[s] = Math.floor(random() * (cw[s] + 1));
-  }
-
   const delivered = classes.map((c, i) => successes[i] * c.payloadBits);
+  const successTotal = successTimeUs.reduce((a, b) => a + b, 0);
   return {
     seed,
-    durationUs: timeUs,
+    durationUs: endUs,
     busySlots,
-    idleSlots,
     classes: classes.map((c, i) => ({
       name: c.name,
       stations: c.stations,
@@ -206,17 +252,22 @@ export function simulate(params: SimulationParams, seed: number, length: Simulat
       successes: successes[i],
       collisions: collided[i],
       drops: drops[i],
+      blockAckReqs: bars[i],
       collisionProbability: attempts[i] > 0 ? collided[i] / attempts[i] : 0,
-      goodputMbps: timeUs > 0 ? delivered[i] / timeUs : 0,
-      airtimeShare: timeUs > 0 ? successTimeUs[i] / timeUs : 0,
+      goodputMbps: delivered[i] / endUs,
+      airtimeShare: successTimeUs[i] / endUs,
     })),
-    goodputMbps: timeUs > 0 ? delivered.reduce((a, b) => a + b, 0) / timeUs : 0,
-    contentionShare: timeUs > 0 ? (idleTimeUs + collisionTimeUs) / timeUs : 0,
+    goodputMbps: delivered.reduce((a, b) => a + b, 0) / endUs,
+    contentionShare: 1 - successTotal / endUs,
   };
 }
 
 function positive(name: string, v: unknown): void {
   if (typeof v !== "number" || !Number.isFinite(v) || v <= 0) invalid(`${name}: expected a positive number, got ${String(v)}`);
+}
+
+function nonNegative(name: string, v: unknown): void {
+  if (typeof v !== "number" || !Number.isFinite(v) || v < 0) invalid(`${name}: expected 0 or more, got ${String(v)}`);
 }
 
 function whole(name: string, v: unknown, min: number, max: number): void {
@@ -227,7 +278,8 @@ function whole(name: string, v: unknown, min: number, max: number): void {
 function checkParams(params: SimulationParams, seed: number, length: SimulationLength): void {
   whole("seed", seed, 0, 0xffffffff);
   positive("slotUs", params.slotUs);
-  if (typeof params.sifsUs !== "number" || !Number.isFinite(params.sifsUs) || params.sifsUs < 0) invalid(`sifsUs: expected 0 or more µs, got ${String(params.sifsUs)}`);
+  nonNegative("sifsUs", params.sifsUs);
+  nonNegative("eifsExtraUs", params.eifsExtraUs);
   if (!Array.isArray(params.classes) || params.classes.length === 0) invalid("classes: give at least one class of stations");
   let total = 0;
   for (const c of params.classes) {
@@ -236,8 +288,14 @@ function checkParams(params: SimulationParams, seed: number, length: SimulationL
     whole(`${c.name}.cwMin`, c.cwMin, 0, 32767);
     whole(`${c.name}.cwMax`, c.cwMax, c.cwMin, 32767);
     whole(`${c.name}.retryLimit`, c.retryLimit, 1, 255);
+    if (c.countdown !== "DCF" && c.countdown !== "EDCA") invalid(`${c.name}.countdown: expected DCF or EDCA, got ${String(c.countdown)}`);
     positive(`${c.name}.successUs`, c.successUs);
-    positive(`${c.name}.collisionUs`, c.collisionUs);
+    positive(`${c.name}.collisionPpduUs`, c.collisionPpduUs);
+    nonNegative(`${c.name}.responseTimeoutUs`, c.responseTimeoutUs);
+    if (c.blockAckReq !== null) {
+      positive(`${c.name}.blockAckReq.successUs`, c.blockAckReq.successUs);
+      positive(`${c.name}.blockAckReq.collisionPpduUs`, c.blockAckReq.collisionPpduUs);
+    }
     if (typeof c.payloadBits !== "number" || !(c.payloadBits >= 0)) invalid(`${c.name}.payloadBits: expected 0 or more bits, got ${String(c.payloadBits)}`);
     total += c.stations;
   }

@@ -22,7 +22,7 @@ import { isMissing } from "../args";
 import type { Bytes, MbPerSecond, Microseconds } from "../units";
 import type { EdcaParameters, Protection } from "./edca";
 import { aggregationLimit } from "./aggregation";
-import { exchangeContext, ppduUsFor, psduBytesFor, responseUsFor, usesBlockAck, type ExchangeContext } from "./exchange";
+import { blockAckReqFor, exchangeContext, ppduUsFor, psduBytesFor, responseUsFor, usesBlockAck, type BlockAckReqTiming, type ExchangeContext } from "./exchange";
 
 export interface AccessTerm {
   readonly label: string;
@@ -47,6 +47,8 @@ export interface ChannelAccess {
   readonly controlRateMbps: MbPerSecond;
   readonly edca: EdcaParameters;
   readonly protection: Protection;
+  /** `BAR`: the BlockAckReq exchange that recovers a missed BlockAck (not part of the uncontended access); null otherwise. */
+  readonly blockAckReq: BlockAckReqTiming | null;
 }
 
 /** mpdus: "auto"/empty → the aggregation limit; else a whole number from 1 to that limit. */
@@ -114,6 +116,7 @@ export function accessFor(ctx: ExchangeContext, n: number): ChannelAccess {
     controlRateMbps: ctx.controlRateMbps,
     edca,
     protection: ctx.protection,
+    blockAckReq: blockAckReqFor(ctx, n),
   });
 }
 

@@ -13,6 +13,7 @@ import { edcaFor, parseAccess, parseProtection, type AccessCategory, type EdcaPa
 import {
   ACK_octets,
   AMPDU_DELIMITER_octets,
+  BLOCK_ACK_REQ_octets,
   CTS_octets,
   RTS_octets,
   ampduLength,
@@ -110,6 +111,10 @@ function checkFamilyOptions(link: Link, options: MacOptions, access: AccessCateg
   if (options.htc && (!aggregating || access === "DCF")) {
     invalid(`mac_options: HTC (HT Control field) needs HT or later and QoS Data frames; drop HTC for ${access === "DCF" ? "DCF" : link.family}`);
   }
+  if (options.blockAckReq) {
+    if (!aggregating) invalid(`mac_options: BAR (BlockAckReq recovery) needs block ack, HT or later; ${link.family} has none — drop BAR`);
+    if (access === "DCF") invalid(`mac_options: BAR (BlockAckReq recovery) needs a block ack agreement, which DCF (non-QoS data) has not; drop BAR or choose BK, BE, VI or VO`);
+  }
   if (options.baWindow !== null) {
     if (!aggregating) invalid(`mac_options: BA= needs HT or later; ${link.family} has no block ack agreement here — drop BA=`);
     const max = baWindowMax(link.family);
@@ -197,4 +202,18 @@ export function responseUsFor(ctx: ExchangeContext, n: number): Microseconds {
 /** What the TXOP limit bounds: protection + PPDU + SIFS + response (everything after the backoff). */
 export function exchangeUsFor(ctx: ExchangeContext, n: number): Microseconds {
   return ctx.protectionUs + ppduUsFor(ctx, n) + ctx.edca.sifsUs + responseUsFor(ctx, n);
+}
+
+/** The BlockAckReq recovery of `BAR` (mac_options) for n MPDUs, µs; null when not asked for or n < 2 (an Ack has no BlockAckReq). */
+export interface BlockAckReqTiming {
+  /** The BlockAckReq PPDU at the control rate. */
+  readonly ppduUs: Microseconds;
+  /** BlockAckReq + SIFS + BlockAck: the exchange once it gets the channel. */
+  readonly exchangeUs: Microseconds;
+}
+
+export function blockAckReqFor(ctx: ExchangeContext, n: number): BlockAckReqTiming | null {
+  if (!ctx.options.blockAckReq || !usesBlockAck(n)) return null;
+  const ppduUs = txtimeUs(ctx.controlLink, BLOCK_ACK_REQ_octets);
+  return { ppduUs, exchangeUs: ppduUs + ctx.edca.sifsUs + responseUsFor(ctx, n) };
 }

@@ -65,10 +65,29 @@ function wholeFrameMbps(a: ChannelAccess, p: number): MbPerSecond {
   return expectedBits / expectedUs;
 }
 
+/**
+ * `BAR`: when all N MPDUs of an A-MPDU are lost (probability p^N) no BlockAck
+ * comes back; the originator then contends again with a doubled window
+ * (CW_1 = min(2·(CWmin + 1) − 1, CWmax)) and sends a BlockAckReq, whose
+ * BlockAck resets CW. Per access this adds
+ *   p^N × (AIFS + CW_1 ÷ 2 × slot + BlockAckReq + SIFS + BlockAck)
+ * (the BlockAck timeout that precedes it is taken as the SIFS + BlockAck it
+ * replaces). Without BAR the MPDUs simply ride in the next A-MPDU.
+ */
+function blockAckReqMbps(a: ChannelAccess, p: number): MbPerSecond {
+  const e = a.edca;
+  const bar = a.blockAckReq;
+  if (bar === null) return (1 - p) * losslessMbps(a);
+  const cw1 = Math.min(2 * (e.cwMin + 1) - 1, e.cwMax);
+  const missed = Math.pow(p, a.mpdus);
+  const recoveryUs = e.aifsUs + (cw1 / 2) * e.slotUs + bar.exchangeUs;
+  return ((1 - p) * 8 * a.packetBytes * a.msdusPerMpdu * a.mpdus) / (a.totalUs + missed * recoveryUs);
+}
+
 /** Goodput of a resolved channel access with MPDU loss p, Mb/s. */
 export function goodputFor(a: ChannelAccess, p: number): MbPerSecond {
   if (p === 0) return losslessMbps(a);
-  return usesBlockAck(a.mpdus) ? (1 - p) * losslessMbps(a) : wholeFrameMbps(a, p);
+  return usesBlockAck(a.mpdus) ? blockAckReqMbps(a, p) : wholeFrameMbps(a, p);
 }
 
 /**

@@ -52,6 +52,12 @@ export interface MacOptions {
   readonly tcp: boolean;
   /** TCP segments per acknowledgement (TCPACK=n); null = 2, delayed ACKs (tcp.ts). */
   readonly tcpAckSegments: number | null;
+  /**
+   * After a missed BlockAck, send a BlockAckReq in a channel access of its own
+   * (its BlockAck resets CW) instead of retransmitting the MPDUs in the next
+   * A-MPDU (the default). 10.25.6 (block ack procedures; clause from memory).
+   */
+  readonly blockAckReq: boolean;
 }
 
 export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
@@ -71,6 +77,7 @@ export const DEFAULT_MAC_OPTIONS: MacOptions = Object.freeze({
   muBar: false,
   tcp: false,
   tcpAckSegments: null,
+  blockAckReq: false,
 });
 
 /** Rates a basic rate set may hold: Clause 15/16 DSSS/HR-DSSS and Clause 17/18 OFDM rates, Mb/s. */
@@ -98,7 +105,7 @@ const RETRY_MAX = 255;
 const TCPACK_MAX = 64;
 
 const VALID_TEXT =
-  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC, RETRY=n, MUBAR, TCP or TCPACK=n";
+  "use CCMP-128, CCMP-256, GCMP-128, GCMP-256, open, AMSDU=n, BA=n, AMPDU=n, TXOP=n, AP, AIFSN=n, CWMIN=n, CWMAX=n, SLOT=9|20, BASIC=6,12,24, HTC, RETRY=n, BAR, MUBAR, TCP or TCPACK=n";
 
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
@@ -163,6 +170,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
     if (t === "HTC") { setOnce(o, seen, "htc", true, raw); continue; }
     if (t === "MUBAR") { setOnce(o, seen, "muBar", true, raw); continue; }
     if (t === "TCP") { setOnce(o, seen, "tcp", true, raw); continue; }
+    if (t === "BAR") { setOnce(o, seen, "blockAckReq", true, raw); continue; }
     const m = t.match(/^([A-Z]+)=(.*)$/);
     if (!m) invalid(`mac_options: unknown setting "${raw}"; ${VALID_TEXT}`);
     const [, key, value] = m;

@@ -82,7 +82,7 @@ describe("CLIENTSHARE with mpdus (one packet per access)", () => {
 
   it("passes mpdus to SATURATE with several stations", () => {
     const link = "HE MCS7 2SS 40MHz 5GHz";
-    expect(clientShare(link, 0.1, 200, 10, "VO", null, 1)).toBe(0.1 / saturationGoodputMbps(link, 10, 200, 1, "VO", null, null));
+    expect(clientShare(link, 0.1, 200, 4, "VO", null, 1)).toBe(0.1 / saturationGoodputMbps(link, 4, 200, 1, "VO", null, null));
   });
 
   it("refuses more MPDUs than fit, naming mpdus", () => {

@@ -1,5 +1,6 @@
-import { attemptProbability, fixedPoint, saturation } from "../../../src/core/contention/bianchi";
-import type { ContentionChannel } from "../../../src/core/contention/timing";
+import { attemptProbability, fixedPoint } from "../../../src/core/contention/bianchi";
+import { saturation } from "../../../src/core/contention/saturation";
+import type { ContentionChannel } from "../../../src/core/contention/parameters";
 
 /*
  * G. Bianchi, IEEE JSAC 18(3), 2000, Table I — FHSS system parameters:
@@ -9,7 +10,9 @@ import type { ContentionChannel } from "../../../src/core/contention/timing";
  * DIFS 128 µs (= SIFS + 2 slots, AIFSN 2).
  * His §IV times: T_s^bas = H + P + SIFS + δ + ACK + DIFS + δ, T_c^bas = H + P + DIFS + δ,
  * T_s^rts = RTS + SIFS + δ + CTS + SIFS + δ + H + P + SIFS + δ + ACK + DIFS + δ,
- * T_c^rts = RTS + DIFS + δ. Our struct holds them without the DIFS.
+ * T_c^rts = RTS + DIFS + δ. Our struct holds them without the DIFS, the
+ * collision as the PPDU (or RTS) plus δ for the response timeout; his model
+ * lets everybody wait DIFS after a collision, so EIFS − DIFS is δ as well.
  */
 const H = 128 + 272; // PHY + MAC header, µs at 1 Mb/s
 const P = 8184;
@@ -20,19 +23,25 @@ const SIFS = 28;
 const delta = 1;
 const SLOT = 50;
 const DIFS = SIFS + 2 * SLOT; // 128 µs, Bianchi Table I
-const BASIC = { successUs: H + P + SIFS + delta + ACK + delta, collisionUs: H + P + delta };
+const BASIC = { successUs: H + P + SIFS + delta + ACK + delta, collisionPpduUs: H + P, responseTimeoutUs: delta };
 const RTSCTS = {
   successUs: RTS + SIFS + delta + CTS + SIFS + delta + H + P + SIFS + delta + ACK + delta,
-  collisionUs: RTS + delta,
+  collisionPpduUs: RTS,
+  responseTimeoutUs: delta,
 };
 // Bianchi's model has no retry limit; 200 attempts leave p^200 < 1e-44 for p ≤ 0.6.
 const UNLIMITED = 200;
+/** m' = 3 doubling stages (Bianchi's Fig. 6 setting). */
+const UNLIMITED_STAGES = 3;
 
 function fhss(stations: number, w: number, m: number, access: typeof BASIC): ContentionChannel {
   return {
     slotUs: SLOT,
     sifsUs: SIFS,
-    classes: [{ name: "DCF", stations, aifsn: 2, cwMin: w - 1, cwMax: w * 2 ** m - 1, retryLimit: UNLIMITED, payloadBits: P, ...access }],
+    eifsExtraUs: delta,
+    classes: [
+      { name: "DCF", stations, aifsn: 2, cwMin: w - 1, cwMax: w * 2 ** m - 1, retryLimit: UNLIMITED, countdown: "EDCA", payloadBits: P, blockAckReq: null, ...access },
+    ],
   };
 }
 
@@ -128,9 +137,16 @@ describe("saturation throughput with Bianchi's FHSS parameters", () => {
     expect(saturation(fhss(1, 32, 3, BASIC)).goodputMbps).toBeCloseTo(P / (ts + (SLOT * (32 - 1)) / 2), 12);
   });
 
-  it("counts the DIFS in T_s and T_c as Bianchi does", () => {
-    const s = saturation(fhss(10, 32, 3, BASIC));
-    expect([s.successSlotUs, s.collisionSlotUs]).toEqual([H + P + SIFS + delta + ACK + DIFS + delta, H + P + DIFS + delta]);
+  it("counts the DIFS in T_s and T_c as Bianchi does (his eq. (13), written out here)", () => {
+    // S = P_s·P_tr·E[P] ÷ [(1 − P_tr)σ + P_tr·P_s·T_s + P_tr(1 − P_s)·T_c], τ and p from his eqs. (7) and (9)
+    const n = 10;
+    const { tau } = bianchiFixedPoint(n, 32, 3);
+    const ptr = 1 - Math.pow(1 - tau, n);
+    const ps = (n * tau * Math.pow(1 - tau, n - 1)) / ptr;
+    const ts = H + P + SIFS + delta + ACK + DIFS + delta;
+    const tc = H + P + DIFS + delta;
+    const s = (ps * ptr * P) / ((1 - ptr) * SLOT + ptr * ps * ts + ptr * (1 - ps) * tc);
+    expect(saturation(fhss(n, 32, UNLIMITED_STAGES, BASIC)).goodputMbps).toBeCloseTo(s, 6);
   });
 
   // Bianchi 2000 Fig. 6 (analysis vs simulation, W = 32, m = 3), values read
@@ -163,7 +179,8 @@ describe("saturation throughput with Bianchi's FHSS parameters", () => {
 
   it("spends the rest of the airtime on successes", () => {
     const s = saturation(fhss(20, 32, 3, BASIC));
-    const successShare = (s.transmitProbability * s.successProbability * s.successSlotUs) / s.meanSlotUs;
+    const ts = H + P + SIFS + delta + ACK + DIFS + delta;
+    const successShare = (s.goodputMbps / P) * ts; // successes per µs × T_s
     expect(s.contentionShare + successShare).toBeCloseTo(1, 12);
   });
 });

@@ -1,4 +1,4 @@
-import { goodputMbps, efficiency, expectedTransmissions } from "../../../src/core/mac";
+import { channelAccess, goodputMbps, efficiency, expectedTransmissions } from "../../../src/core/mac";
 import { expectValueError } from "../../_lib/expectError";
 
 const ERP = "ERP-OFDM 54Mbps 2.4GHz";
@@ -94,6 +94,32 @@ describe("GOODPUT with MPDU loss", () => {
       }
     }
     expect(goodputMbps(OFDM5, 1500, 1, "BE", null, p) / ((8 * bytes) / time)).toBeCloseTo(1, 2);
+  });
+  it("BAR: a missed BlockAck (every MPDU lost) costs a BlockAckReq access, as a seeded Monte Carlo of it gives", () => {
+    // HT MCS7 5 GHz, 2 MPDUs, BE. Recovery: AIFS 43 + backoff uniform on 0..31 slots of 9 µs (the doubled window)
+    // + BlockAckReq (24 octets at 24 Mb/s: 20 + 4 × ⌈(16 + 192 + 6)/96⌉ = 32 µs) + SIFS 16 + compressed BlockAck
+    // (32 octets: 20 + 4 × ⌈(16 + 256 + 6)/96⌉ = 32 µs) (IEEE 802.11-2020 17.4.3 TXTIME, 9.3.1.8/9.3.1.9 frame sizes).
+    const rand = mulberry32(77);
+    const p = 0.5;
+    const accessUs = channelAccess(HT7, 1500, 2).totalUs;
+    let time = 0;
+    let delivered = 0;
+    for (let a = 0; a < 200000; a++) {
+      time += accessUs;
+      let got = 0;
+      for (let i = 0; i < 2; i++) if (rand() >= p) got++;
+      delivered += got;
+      if (got === 0) time += 43 + Math.floor(rand() * 32) * 9 + 32 + 16 + 32;
+    }
+    expect(goodputMbps(HT7, 1500, 2, "BE", null, p, "BAR") / ((8 * 1500 * delivered) / time)).toBeCloseTo(1, 2);
+  });
+  it("BAR never raises GOODPUT, and changes nothing without loss", () => {
+    expect(goodputMbps(HT7, 1500, 8, "BE", null, 0.3, "BAR")).toBeLessThan(goodputMbps(HT7, 1500, 8, "BE", null, 0.3));
+    expect(goodputMbps(HT7, 1500, 8, "BE", null, 0, "BAR")).toBe(goodputMbps(HT7, 1500, 8, "BE", null, 0));
+  });
+  it("refuses BAR on OFDM (no block ack) and with DCF, naming mac_options", () => {
+    expectValueError(() => goodputMbps(OFDM5, 1500, 1, "BE", null, 0.1, "BAR"), /^mac_options: BAR .*block ack/);
+    expectValueError(() => goodputMbps(HT7, 1500, 1, "DCF", null, 0.1, "BAR"), /^mac_options: BAR .*DCF/);
   });
   it("more loss never gives more goodput (monotonicity)", () => {
     for (const link of [OFDM5, HT7]) {

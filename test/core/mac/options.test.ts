@@ -22,6 +22,10 @@ describe("mac_options parsing (DESIGN.md §2)", () => {
     expect([DEFAULT_MAC_OPTIONS.muBar, parseMacOptions("mubar GCMP-256").muBar]).toEqual([false, true]);
     expectValueError(() => parseMacOptions("MUBAR MUBAR"), /^mac_options: "MUBAR" repeats/);
   });
+
+  it("reads BAR (BlockAckReq recovery after a missed BlockAck), off by default", () => {
+    expect([DEFAULT_MAC_OPTIONS.blockAckReq, parseMacOptions("bar").blockAckReq]).toEqual([false, true]);
+  });
   it("refuses an unknown setting and lists the valid ones", () => {
     expectValueError(() => parseMacOptions("WEP"), /^mac_options: unknown setting "WEP"; use CCMP-128/);
   });

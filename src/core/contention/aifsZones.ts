@@ -1,0 +1,678 @@
+/**
+ * Saturated classes of EDCA (or DCF) stations with different AIFSN, CWmin,
+ * CWmax, retry limits and exchange lengths sharing one channel (EDCAMIX).
+ *
+ * AIFS zones follow the EDCA countdown rule (IEEE 802.11-2020 10.23.2.4;
+ * from memory): after a busy period, zone z is the z-th slot boundary of the
+ * shortest AIFS; a class with AIFSN_c waits d_c = AIFSN_c − min AIFSN zones,
+ * then counts down at every boundary from its own AIFS on — the boundary at
+ * the end of its AIFS, and the one at which another station starts, count —
+ * and sends at zone d_c + k with counter k. (DCF stations count only the
+ * ends of idle slots, 10.3.4.3.) After a collision the stations that only
+ * listened wait EIFS − DIFS longer than the colliders (10.3.2.3.7):
+ * e = round((EIFS − DIFS − timeout) ÷ σ) more zones.
+ *
+ * Zone models with a per-slot attempt probability (J. W. Robinson and T. S.
+ * Randhawa, "Saturation throughput analysis of IEEE 802.11e enhanced
+ * distributed coordination function", IEEE JSAC 22(5), 2004; J. Hui and M.
+ * Devetsikiotis, "A unified model for the performance analysis of IEEE
+ * 802.11e EDCA", IEEE Trans. Communications 53(9), 2005 — both from memory)
+ * treat each station's countdown as memoryless, which breaks down beside a
+ * class with small windows: a voice station's fresh counter on 0…3 has sent
+ * within four zones for sure, while a constant τ leaves best effort a
+ * geometric tail of chances (the +30…60 % of issue 11). So this model keeps
+ * the counters themselves, as an exact numerical solution over AIFS-zone
+ * states: the mean-field decoupling is only across stations, not in time.
+ *
+ * State at the start of an idle period (zone 0): the kind of the last busy
+ * period — a success of class a (S_a), or a collision of the pair (a, b)
+ * (C_ab; collisions of three or more are shared out over the pairs in
+ * proportion) — and, for every station, its counter, independent across
+ * stations with distributions
+ *   F^S_c   uniform on 0…CWmin_c             (the station that just succeeded)
+ *   F^C_c   Σ_i π_i·uniform on 0…W_next(i)−1 (a collider; π_i ∝ p_c^i, i = 0…m;
+ *                                             W_next = W_{i+1}, or W_0 after a drop)
+ *   R_c     the law of a listener           (solved for)
+ * After C_ab zone 0 is the longer collider's PPDU end + timeout + AIFS_min;
+ * the shorter collider resumes after its own timeout or the end of the
+ * longer PPDU, whichever is later (so it may start zones early), and the
+ * listeners EIFS − DIFS after the PPDU (10.3.2.3.7).
+ * Group g (count n_g, offset o_g, counter law D_g): it sends at zone t with
+ * P_g(t) = D_g(t − o_g); given silence before t its hazard is
+ * h_g(t) = P_g(t) ÷ S_g(t−1), S_g the survival. With A(t) = Π_g S_g(t−1)^{n_g}:
+ *   P(idle at t)          = A(t)·Π_g (1 − h_g)^{n_g}
+ *   P(class c alone at t) = A(t)·Σ_{g∈c} n_g h_g (1 − h_g)^{n_g − 1}·Π_{g'≠g} (1 − h_{g'})^{n_{g'}}
+ *   collisions: the rest; their length is the longest colliding PPDU (classes
+ *               sorted by it, as "nobody longer sends" products)
+ * A station that did not send at t keeps k' = k − (t − o_g + 1) (EDCA) or
+ * k − (t − o_g) (DCF) for t ≥ o_g, k' = k before its zone. R_c is the
+ * stationary law of a listener's counter: its entries are the counters of
+ * stations that had just sent and did not send at the next busy period,
+ * and it moves down by the decrements its environment (the others' first
+ * busy zone) deals it, computed in one pass from the top counter down
+ * (listenerLaw). The kind of the next busy period gives the transition
+ * matrix of the state chain; its stationary law weights the cycle times
+ * and successes:
+ *   cycle = t·σ + (success exchange, or PPDU + timeout) + AIFS_min
+ *   S_c   = Σ_states π·P(data success of c)·payload_c ÷ Σ_states π·E[cycle]     (Mb/s)
+ *   p_c   = collided attempts of class c ÷ attempts of class c
+ * BlockAckReq recovery: a collider's next attempt is a BlockAckReq;
+ * listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of
+ * their attempts. The whole is iterated to a fixed point (at most 200
+ * sweeps, until the distance left, estimated from the contraction between
+ * sweeps, is below 1e-6 on every p_c and entry of R_c; or until a work limit,
+ * after which the catalog refuses an estimate above 1e-4). With one class EDCAMIX uses
+ * saturation.ts, which SATURATE uses.
+ */
+import type { ContentionChannel, ContentionClass } from "./parameters";
+import { saturation } from "./saturation";
+
+export interface ClassResult {
+  readonly name: string;
+  readonly stations: number;
+  readonly p: number;
+  /** Aggregate goodput of the class, Mb/s. */
+  readonly goodputMbps: number;
+  /** Share of airtime in this class's successful data exchanges (with the AIFS[min] after them). */
+  readonly airtimeShare: number;
+}
+
+export interface MixResult {
+  readonly classes: readonly ClassResult[];
+  /** 1 − the data successes' share of airtime. */
+  readonly contentionShare: number;
+  /** Estimated distance left to the fixed point on p_c and the listener laws (a convergence check). */
+  readonly residual: number;
+}
+
+const SWEEP_LIMIT = 200;
+const SWEEP_TOLERANCE = 1e-6;
+/** The contraction rate assumed at most when estimating the distance left to the fixed point. */
+const RHO_MAX = 0.999;
+/** Zones are followed until the chance that nobody has sent falls below this. */
+const HORIZON_EPSILON = 1e-8;
+/** A counter law's tail below this is taken as spent. */
+const TAIL_EPSILON = 1e-15;
+
+/** A counter law with its tail sums T(j) = P(k ≥ j), and, for a fresh draw, its uniform pieces. */
+interface Law {
+  readonly p: Float64Array;
+  readonly tails: Float64Array;
+  /** Mixture of uniforms on 0…width−1 with these weights (fresh and collider draws); null for a listener's law. */
+  readonly pieces: readonly { readonly width: number; readonly weight: number }[] | null;
+}
+
+function lawOf(p: Float64Array, pieces: Law["pieces"]): Law {
+  return { p, tails: tailsOf(p), pieces };
+}
+
+interface Group {
+  readonly cls: number;
+  readonly count: number;
+  readonly offset: number;
+  readonly law: Law;
+  /** Share of this group's attempts that are BlockAckReqs. */
+  readonly bar: number;
+  /** Listeners (their law is R_c) rather than stations that have just sent. */
+  readonly listener: boolean;
+}
+
+/** Zones of a listener's environment followed one by one (beyond, a geometric tail of the same mass). */
+const REACH_MAX = 24;
+/**
+ * Work allowed for one solution, in inner-loop steps (at most about 10 ms on one idle
+ * core, so that a loaded machine stays far from the 50 ms call guard; 1–2 VI + 20 BE need about 2e6 and are refused): the fixed point stops there, and if it has not settled to
+ * RESIDUAL_ACCEPTED the catalog answers #N/A rather than an unsettled number.
+ */
+const WORK_LIMIT = 1.2e6;
+export const RESIDUAL_ACCEPTED = 1e-4;
+
+interface Work {
+  done: number;
+}
+
+/** Share of the listeners' environment that may be left out at its far end. */
+const ENV_NEGLIGIBLE = 1e-12;
+/** A listener still silent with everybody else beyond this chance no longer shapes its environment. */
+const LISTENER_HORIZON = 1e-8;
+/** Relative zones r = t − o_g from −ENV_SHIFT on are kept in the listeners' environment. */
+const ENV_SHIFT = 64;
+
+function windowOf(c: ContentionClass, stage: number): number {
+  return Math.min(2 ** stage * (c.cwMin + 1), c.cwMax + 1);
+}
+
+function uniform(size: number, width: number): Float64Array {
+  const law = new Float64Array(size);
+  for (let k = 0; k < width; k++) law[k] = 1 / width;
+  return law;
+}
+
+function freshLaw(c: ContentionClass): Law {
+  return lawOf(uniform(c.cwMax + 1, c.cwMin + 1), [{ width: c.cwMin + 1, weight: 1 }]);
+}
+
+/** The counter law of a collider of class c: the next stage's window, stages weighted by p^i. */
+function colliderLaw(c: ContentionClass, p: number): Law {
+  const size = c.cwMax + 1;
+  const law = new Float64Array(size);
+  const pieces: { width: number; weight: number }[] = [];
+  const m = c.retryLimit - 1;
+  let w = 1;
+  let total = 0;
+  for (let i = 0; i <= m; i++) {
+    total += w;
+    w *= p;
+  }
+  w = 1;
+  for (let i = 0; i <= m; i++) {
+    const next = i < m ? windowOf(c, i + 1) : windowOf(c, 0);
+    const share = w / total / next;
+    for (let k = 0; k < next; k++) law[k] += share;
+    pieces.push({ width: next, weight: w / total });
+    w *= p;
+  }
+  return lawOf(law, pieces);
+}
+
+function barShare(c: ContentionClass, p: number): number {
+  if (c.blockAckReq === null) return 0;
+  let w = 1;
+  let total = 0;
+  for (let i = 0; i < c.retryLimit; i++) {
+    total += w;
+    w *= p;
+  }
+  return 1 - 1 / total;
+}
+
+/** The states after a busy period: a success of class a (index a), or a collision of the pair (a, b). */
+interface StateSpace {
+  readonly count: number;
+  /** Collision pair per state index ≥ C. */
+  readonly pairs: readonly (readonly [number, number])[];
+  /** pairIndex[a][b] = state index of the collision (a, b). */
+  readonly pairIndex: readonly (readonly number[])[];
+}
+
+function stateSpace(classes: readonly ContentionClass[]): StateSpace {
+  const C = classes.length;
+  const pairs: [number, number][] = [];
+  const pairIndex = classes.map(() => classes.map(() => -1));
+  for (let a = 0; a < C; a++) {
+    for (let b = a; b < C; b++) {
+      if (a === b && classes[a].stations < 2) continue;
+      pairIndex[a][b] = pairIndex[b][a] = C + pairs.length;
+      pairs.push([a, b]);
+    }
+  }
+  return { count: C + pairs.length, pairs, pairIndex };
+}
+
+/** What one state leads to: the next state's law, cycle time, successes, attempts and listener residuals. */
+interface StateOutcome {
+  readonly next: Float64Array;
+  readonly cycleUs: number;
+  readonly dataSuccess: Float64Array;
+  readonly attempts: Float64Array;
+  readonly collided: Float64Array;
+  /**
+   * Counters (unnormalised) of the stations that had just sent and did not send again — they join the
+   * listeners — as difference arrays per class (the caller's buffers, reused across sweeps).
+   */
+  readonly residualDiff: Float64Array[];
+  /**
+   * The listeners' environment per class: Σ_g n_g·P(the others' first busy zone is o_g + r), r from −ENV_SHIFT,
+   * and Σ_g n_g (listeners of the class in this state).
+   */
+  readonly env: Float64Array[];
+  readonly envWeight: Float64Array;
+}
+
+/**
+ * Follow one state's zones until somebody sends. `busyUs` is the time from
+ * the previous busy period's start to zone 0 of this state (the busy period
+ * itself and AIFS_min); zone t lies t·σ after zone 0 (t may be negative for a
+ * collider that resumes before the reference).
+ */
+function runState(
+  channel: ContentionChannel,
+  groups: readonly Group[],
+  order: readonly number[],
+  space: StateSpace,
+  aifsMin: number,
+  work: Work,
+  diff: Float64Array[],
+): StateOutcome {
+  const classes = channel.classes;
+  const C = classes.length;
+  const G = groups.length;
+  const sigma = channel.slotUs;
+  const next = new Float64Array(space.count);
+  const dataSuccess = new Float64Array(C);
+  const attempts = new Float64Array(C);
+  const collided = new Float64Array(C);
+  // Zones −ENV_SHIFT … REACH_MAX + 1 one by one, and the mass of all later zones in the last slot (listenerLaw).
+  const envLength = ENV_SHIFT + REACH_MAX + 3;
+  const env = classes.map(() => new Float64Array(envLength));
+  const envWeight = new Float64Array(C);
+  for (const gr of groups) if (gr.listener) envWeight[gr.cls] += gr.count;
+  const aliveExcept = new Float64Array(G).fill(1); // P(all but one station of g silent before t)
+  // Tail sums T_g(j) = P(k ≥ j): the survival S_g(t − 1) = T_g(t − o_g), exact (no running product to drift).
+  const tails = groups.map((gr) => gr.law.tails);
+  for (const d of diff) d.fill(0);
+  const h = new Float64Array(G);
+  const silentG = new Float64Array(G); // (1 − h_g)^{n_g}
+  const loneG = new Float64Array(G); // n_g h_g (1 − h_g)^{n_g − 1}
+  const classTx = new Float64Array(C); // P(no station of class c sends at t | silent before)
+  const pairMass = new Float64Array(space.pairs.length);
+  let alive = 1; // A(t)
+  let cycle = 0;
+  const first = Math.min(...groups.map((g) => g.offset));
+  const last = Math.max(...groups.map((g) => g.offset + g.law.p.length));
+  for (let t = first; t <= last && (alive > HORIZON_EPSILON || listenersWaiting(groups, aliveExcept, tails, t)); t++) {
+    let allSilent = 1;
+    work.done += 8 * (G * G + 4 * G);
+    for (let g = 0; g < G; g++) {
+      const gr = groups[g];
+      const j = t - gr.offset;
+      const before = j <= 0 ? 1 : tails[g][Math.min(j, gr.law.p.length)];
+      const pt = j >= 0 && j < gr.law.p.length ? gr.law.p[j] : 0;
+      h[g] = before > TAIL_EPSILON ? Math.min(1, pt / before) : 0;
+      silentG[g] = Math.pow(1 - h[g], gr.count);
+      loneG[g] = loneOf(gr.count, h[g]);
+      allSilent *= silentG[g];
+    }
+    const busy = alive * (1 - allSilent);
+    if (busy > 0) {
+      const zoneUs = t * sigma + aifsMin;
+      let successAll = 0;
+      for (let g = 0; g < G; g++) {
+        const gr = groups[g];
+        if (h[g] === 0) continue;
+        const alone = alive * loneG[g] * othersOf(silentG, allSilent, g);
+        const c = gr.cls;
+        const k = classes[c];
+        next[c] += alone;
+        successAll += alone;
+        dataSuccess[c] += alone * (1 - gr.bar);
+        const exchange = k.blockAckReq !== null ? gr.bar * k.blockAckReq.successUs + (1 - gr.bar) * k.successUs : k.successUs;
+        cycle += alone * (zoneUs + exchange);
+        const tries = alive * gr.count * h[g];
+        attempts[c] += tries;
+        collided[c] += tries - alone;
+      }
+      const collisions = Math.max(0, busy - successAll);
+      // Collisions by their longest member (classes in order of collision length).
+      classTx.fill(1);
+      for (let g = 0; g < G; g++) classTx[groups[g].cls] *= silentG[g];
+      let longerSilent = 1;
+      for (let i = C - 1; i >= 0; i--) {
+        const c = order[i];
+        let lone = 0;
+        for (let g = 0; g < G; g++) if (groups[g].cls === c && h[g] > 0) lone += loneG[g] * othersOf(silentG, allSilent, g);
+        const longest = Math.max(0, alive * (longerSilent * (1 - classTx[c]) - lone));
+        cycle += longest * (zoneUs + classes[c].collisionPpduUs);
+        longerSilent *= classTx[c];
+      }
+      // Which pair collided: exactly two senders, exactly; three or more shared out in proportion.
+      pairMass.fill(0);
+      let pairs = 0;
+      for (let g1 = 0; g1 < G; g1++) {
+        if (h[g1] === 0) continue;
+        const n1 = groups[g1].count;
+        const rest1 = othersOf(silentG, allSilent, g1);
+        if (n1 >= 2) {
+          const two = ((n1 * (n1 - 1)) / 2) * h[g1] * h[g1] * Math.pow(1 - h[g1], n1 - 2) * rest1;
+          const idx = space.pairIndex[groups[g1].cls][groups[g1].cls] - C;
+          if (idx >= 0) {
+            pairMass[idx] += two;
+            pairs += two;
+          }
+        }
+        for (let g2 = g1 + 1; g2 < G; g2++) {
+          if (h[g2] === 0) continue;
+          const rest = silentG[g2] > 0 ? rest1 / silentG[g2] : prodExcept2(silentG, g1, g2);
+          const two = loneG[g1] * loneG[g2] * rest;
+          const idx = space.pairIndex[groups[g1].cls][groups[g2].cls] - C;
+          if (idx >= 0) {
+            pairMass[idx] += two;
+            pairs += two;
+          }
+        }
+      }
+      for (let q = 0; q < pairMass.length; q++) {
+        next[C + q] += pairs > 0 ? (collisions * pairMass[q]) / pairs : collisions / pairMass.length;
+      }
+      // Stations that had just sent and stay silent at t join the listeners with k − dec.
+      for (let g = 0; g < G; g++) {
+        const gr = groups[g];
+        const stays = 1 - h[g];
+        if (gr.listener || stays <= 0) continue;
+        const j = t - gr.offset;
+        const surv = j < 0 ? 1 : tails[g][Math.min(j + 1, gr.law.p.length)]; // S_g(t)
+        if (surv <= TAIL_EPSILON) continue;
+        // P(busy at t and this station silent), times the stations; the others include the rest of its group.
+        const others = othersOf(silentG, allSilent, g) * (gr.count >= 1 ? Math.pow(stays, gr.count - 1) : 1);
+        const w = alive * gr.count * stays * (1 - others);
+        if (w <= 0) continue;
+        const c = gr.cls;
+        const dec = j < 0 ? 0 : classes[c].countdown === "DCF" ? j : j + 1;
+        const from = j < 0 ? 0 : j + 1; // it did not send: k > t − o_g
+        const scale = w / surv;
+        // Each uniform piece on 0…W−1, cut to k ≥ from and shifted down by dec, is uniform on from−dec … W−1−dec.
+        const d = diff[c];
+        for (const piece of gr.law.pieces as NonNullable<Law["pieces"]>) {
+          const hi = piece.width - 1 - dec;
+          const lo = from - dec;
+          if (hi < lo) continue;
+          const v = (scale * piece.weight) / piece.width;
+          d[lo] += v;
+          d[hi + 1] -= v;
+        }
+      }
+    }
+    // The listeners' environment: when do the others first send, whatever the listener's own counter?
+    for (let g = 0; g < G; g++) {
+      const gr = groups[g];
+      if (!gr.listener) continue;
+      const stays = 1 - h[g];
+      const others = stays > 0 ? allSilent / stays : gr.count > 1 ? 0 : othersOf(silentG, allSilent, g);
+      const r = t - gr.offset + ENV_SHIFT;
+      if (r >= 0) env[gr.cls][Math.min(r, envLength - 1)] += gr.count * aliveExcept[g] * (1 - others);
+      aliveExcept[g] *= others;
+    }
+    alive *= allSilent;
+  }
+  // The listeners' environment beyond the horizon: the others are still silent, and will send later.
+  for (let g = 0; g < G; g++) if (groups[g].listener) env[groups[g].cls][envLength - 1] += groups[g].count * aliveExcept[g];
+  // Normalise the next-state law (the horizon leaves at most HORIZON_EPSILON unaccounted).
+  const total = next.reduce((a, b) => a + b, 0);
+  for (let i = 0; i < next.length; i++) next[i] /= total;
+  for (let c = 0; c < C; c++) {
+    dataSuccess[c] /= total;
+    attempts[c] /= total;
+    collided[c] /= total;
+  }
+  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight };
+}
+
+/** Some listener may still be silent, with the others silent too, at zone t (its environment still matters). */
+function listenersWaiting(groups: readonly Group[], aliveExcept: Float64Array, tails: readonly Float64Array[], t: number): boolean {
+  for (let g = 0; g < groups.length; g++) {
+    const gr = groups[g];
+    if (!gr.listener) continue;
+    const j = t - gr.offset;
+    const still = j <= 0 ? 1 : tails[g][Math.min(j, gr.law.p.length)];
+    if (aliveExcept[g] * still > LISTENER_HORIZON) return true;
+  }
+  return false;
+}
+
+/**
+ * The listener law R_c from its entries E (counters of stations that had just
+ * sent and then listened) and its environment env (the others' first busy
+ * zone r relative to the listener's own offset): the expected visits
+ *   U(k) = [E(k) + Σ_{j>k} U(j)·P(j → k)] ÷ (1 − P(k → k))
+ * with P(j → j − r − 1) = env(r), r ≥ 0 (EDCA), P(j → j − r) = env(r), r ≥ 1
+ * (DCF), and a busy period before the listener's own zone (r < 0; DCF also
+ * r = 0) leaving k unchanged. A listener with counter j sends at r = j and
+ * leaves. Computed from the top counter down; R_c = U ÷ Σ U.
+ */
+function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, work: Work): Float64Array {
+  const K = entries.length;
+  const u = new Float64Array(K);
+  // Zones r = 0 … R of the environment are followed one by one; beyond R (the others silent for many
+  // zones) the environment is taken as geometric with the same first term a and tail mass M,
+  // a·ρ^(r−R−1) with ρ = 1 − a/M, so its part of the inflow obeys T(k) = a·u[k + R + 1 + s] + ρ·T(k + 1)
+  // (s = 1 for EDCA, 0 for DCF) and costs one step per counter instead of one per zone.
+  const last = env.length - 1 - ENV_SHIFT;
+  const R = Math.min(REACH_MAX, last);
+  let a = 0;
+  let M = 0;
+  if (R < last) {
+    a = env[ENV_SHIFT + R + 1];
+    for (let r = R + 1; r <= last; r++) M += env[ENV_SHIFT + r];
+  }
+  const rho = M > 0 ? Math.max(0, 1 - a / M) : 0;
+  const shift = dcf ? 0 : 1; // j = k + r + shift
+  work.done += K * (R + 2);
+  let self = 0;
+  for (let r = 0; r < ENV_SHIFT + (dcf ? 1 : 0); r++) self += env[r];
+  const stay = Math.max(1e-12, 1 - self);
+  let total = 0;
+  let tail = 0; // T(k + 1)
+  for (let k = K - 1; k >= 0; k--) {
+    let inflow = entries[k];
+    // From j = k + r + shift; DCF r = 0 is the self-loop, and only k ≥ 1 is reachable.
+    const far = k + R + 1 + shift;
+    tail = (far < K ? a * u[far] : 0) + rho * tail;
+    if (!dcf || k >= 1) {
+      for (let r = dcf ? 1 : 0; r <= R; r++) {
+        const j = k + r + shift;
+        if (j >= K) break;
+        inflow += u[j] * env[ENV_SHIFT + r];
+      }
+      inflow += tail;
+    }
+    u[k] = inflow / stay;
+    total += u[k];
+  }
+  if (total > 0) for (let k = 0; k < K; k++) u[k] /= total;
+  return u;
+}
+
+/** n·h·(1 − h)^(n−1): exactly one of n stations sends. */
+function loneOf(n: number, h: number): number {
+  if (h >= 1) return n === 1 ? 1 : 0;
+  return n * h * Math.pow(1 - h, n - 1);
+}
+
+/** T(j) = Σ_{k ≥ j} law[k], j = 0 … law.length. */
+function tailsOf(law: Float64Array): Float64Array {
+  const t = new Float64Array(law.length + 1);
+  for (let k = law.length - 1; k >= 0; k--) t[k] = t[k + 1] + law[k];
+  return t;
+}
+
+/** Π_{g' ≠ g} silent[g'] (the division shortcut fails when silent[g] is 0). */
+function othersOf(silent: Float64Array, all: number, g: number): number {
+  if (silent[g] > 0) return all / silent[g];
+  let q = 1;
+  for (let i = 0; i < silent.length; i++) if (i !== g) q *= silent[i];
+  return q;
+}
+
+function prodExcept2(silent: Float64Array, a: number, b: number): number {
+  let q = 1;
+  for (let i = 0; i < silent.length; i++) if (i !== a && i !== b) q *= silent[i];
+  return q;
+}
+
+/** Stationary law of a small Markov chain given by rows (power iteration). */
+function stationary(rows: readonly Float64Array[]): Float64Array {
+  const S = rows.length;
+  let pi = new Float64Array(S).fill(1 / S);
+  for (let it = 0; it < 5000; it++) {
+    const nextPi = new Float64Array(S);
+    for (let a = 0; a < S; a++) for (let b = 0; b < S; b++) nextPi[b] += pi[a] * rows[a][b];
+    let moved = 0;
+    for (let b = 0; b < S; b++) moved = Math.max(moved, Math.abs(nextPi[b] - pi[b]));
+    pi = nextPi;
+    if (moved < 1e-15) break;
+  }
+  return pi;
+}
+
+/** The station groups of one state: who is fresh, who collided, who only listened, and their zone offsets. */
+function groupsOf(channel: ContentionChannel, state: number, space: StateSpace, laws: Laws, delay: readonly number[]): Group[] {
+  const classes = channel.classes;
+  const C = classes.length;
+  const sigma = channel.slotUs;
+  const groups: Group[] = [];
+  if (state < C) {
+    classes.forEach((c, i) => {
+      const own = state === i ? 1 : 0;
+      if (own) groups.push({ cls: i, count: 1, offset: delay[i], law: laws.fresh[i], bar: 0, listener: false });
+      if (c.stations > own) groups.push({ cls: i, count: c.stations - own, offset: delay[i], law: laws.listener[i], bar: laws.bar[i], listener: true });
+    });
+    return groups;
+  }
+  const [a, b] = space.pairs[state - C];
+  // Reference: the longest collider's PPDU end + its timeout + AIFS_min. The shorter one
+  // resumes after its own timeout or the end of the longer PPDU, whichever is later.
+  const long = classes[a].collisionPpduUs >= classes[b].collisionPpduUs ? a : b;
+  const short = long === a ? b : a;
+  const L = classes[long].collisionPpduUs;
+  const refUs = L + classes[long].responseTimeoutUs;
+  const shortResumeUs = Math.max(classes[short].collisionPpduUs + classes[short].responseTimeoutUs, L);
+  const colliderOffset = (c: number): number => (c === long ? 0 : Math.round((shortResumeUs - refUs) / sigma));
+  const listenerLag = Math.round((L + channel.eifsExtraUs - refUs) / sigma);
+  classes.forEach((c, i) => {
+    const mine = (i === a ? 1 : 0) + (i === b ? 1 : 0);
+    if (mine > 0) groups.push({ cls: i, count: mine, offset: delay[i] + colliderOffset(i), law: laws.collider[i], bar: c.blockAckReq === null ? 0 : 1, listener: false });
+    if (c.stations > mine) groups.push({ cls: i, count: c.stations - mine, offset: delay[i] + Math.max(0, listenerLag), law: laws.listener[i], bar: laws.bar[i], listener: true });
+  });
+  return groups;
+}
+
+interface Laws {
+  readonly fresh: readonly Law[];
+  readonly collider: readonly Law[];
+  readonly listener: readonly Law[];
+  readonly bar: readonly number[];
+}
+
+/** The busy time charged before zone 0 of a state beyond what runState adds: a collision's timeout. */
+function stateLeadUs(channel: ContentionChannel, state: number, space: StateSpace): number {
+  const C = channel.classes.length;
+  if (state < C) return 0;
+  const [a, b] = space.pairs[state - C];
+  const ca = channel.classes[a];
+  const cb = channel.classes[b];
+  return ca.collisionPpduUs >= cb.collisionPpduUs ? ca.responseTimeoutUs : cb.responseTimeoutUs;
+}
+
+/** Every setting of a class but its name and station count: classes with the same key are the same stations. */
+function settingsKey(c: ContentionClass): string {
+  const bar = c.blockAckReq === null ? "" : `${c.blockAckReq.successUs}/${c.blockAckReq.collisionPpduUs}`;
+  return [c.aifsn, c.cwMin, c.cwMax, c.retryLimit, c.countdown, c.successUs, c.collisionPpduUs, c.responseTimeoutUs, c.payloadBits, bar].join("|");
+}
+
+/**
+ * Solve the multi-class model. Inputs are assumed already checked. Classes
+ * with the same settings (the same access category given twice) are solved
+ * as one and shared out by stations: their stations are alike.
+ */
+export function edcaSaturation(channel: ContentionChannel): MixResult {
+  const keys = channel.classes.map(settingsKey);
+  const distinct = [...new Set(keys)];
+  if (distinct.length === channel.classes.length) return solveDistinct(channel);
+  const merged = distinct.map((k) => {
+    const members = channel.classes.filter((_, i) => keys[i] === k);
+    return { ...members[0], stations: members.reduce((a, c) => a + c.stations, 0) };
+  });
+  const solved = solveDistinct({ ...channel, classes: merged });
+  return {
+    ...solved,
+    classes: channel.classes.map((c, i) => {
+      const m = solved.classes[distinct.indexOf(keys[i])];
+      const share = c.stations / merged[distinct.indexOf(keys[i])].stations;
+      return { name: c.name, stations: c.stations, p: m.p, goodputMbps: m.goodputMbps * share, airtimeShare: m.airtimeShare * share };
+    }),
+  };
+}
+
+function solveDistinct(channel: ContentionChannel): MixResult {
+  const classes = channel.classes;
+  if (classes.length === 1) {
+    const s = saturation(channel);
+    const c = classes[0];
+    return {
+      classes: [{ name: c.name, stations: c.stations, p: s.p, goodputMbps: s.goodputMbps, airtimeShare: 1 - s.contentionShare }],
+      contentionShare: s.contentionShare,
+      residual: 0,
+    };
+  }
+  const C = classes.length;
+  const space = stateSpace(classes);
+  const minAifsn = Math.min(...classes.map((c) => c.aifsn));
+  const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
+  const delay = classes.map((c) => c.aifsn - minAifsn);
+  const order = classes.map((_, i) => i).sort((a, b) => classes[a].collisionPpduUs - classes[b].collisionPpduUs);
+  const fresh = classes.map(freshLaw);
+  let listener: Float64Array[] = classes.map((c) => uniform(c.cwMax + 1, c.cwMin + 1));
+  let p = classes.map(() => 0);
+  let pi: Float64Array = new Float64Array(space.count);
+  let outcomes: StateOutcome[] = [];
+  let residual = Infinity;
+  let lastMoved = 0;
+  const buffers = Array.from({ length: space.count }, () => classes.map((c) => new Float64Array(c.cwMax + 2)));
+  const work: Work = { done: 0 };
+  for (let sweep = 0; sweep < SWEEP_LIMIT && !(residual <= SWEEP_TOLERANCE) && work.done < WORK_LIMIT; sweep++) {
+    const laws: Laws = {
+      fresh,
+      listener: listener.map((l) => lawOf(l, null)),
+      collider: classes.map((c, i) => colliderLaw(c, p[i])),
+      bar: classes.map((c, i) => barShare(c, p[i])),
+    };
+    outcomes = [];
+    // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
+    for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
+    for (let s = 0; s < space.count; s++) {
+      const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers[s]);
+      outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
+    }
+    pi = stationary(outcomes.map((o) => o.next));
+    let moved = 0;
+    const nextP = classes.map((_, c) => {
+      let a = 0;
+      let k = 0;
+      outcomes.forEach((o, s) => {
+        a += pi[s] * o.attempts[c];
+        k += pi[s] * o.collided[c];
+      });
+      return a > 0 ? k / a : 0;
+    });
+    const nextListener = classes.map((c, i) => {
+      const entries = new Float64Array(c.cwMax + 1);
+      const env = new Float64Array(outcomes[0].env[i].length);
+      let weight = 0;
+      outcomes.forEach((o, s) => {
+        const r = o.residualDiff[i];
+        for (let k = 0; k < entries.length; k++) entries[k] += pi[s] * r[k];
+        const e = o.env[i];
+        for (let k = 0; k < env.length; k++) env[k] += pi[s] * e[k];
+        weight += pi[s] * o.envWeight[i];
+      });
+      if (weight <= 0) return listener[i];
+      for (let k = 1; k < entries.length; k++) entries[k] += entries[k - 1]; // prefix sums of the difference arrays
+      for (let k = 0; k < env.length; k++) env[k] /= weight;
+      const law = listenerLaw(entries, env, c.countdown === "DCF", work);
+      for (let k = 0; k < law.length; k++) moved = Math.max(moved, Math.abs(law[k] - listener[i][k]));
+      return law;
+    });
+    for (let c = 0; c < C; c++) moved = Math.max(moved, Math.abs(nextP[c] - p[c]));
+    p = nextP;
+    listener = nextListener;
+    // A slow fixed point moves little per sweep while still far off: estimate the distance left from the
+    // contraction seen between sweeps, |x_k − x*| ≈ moved·ρ ÷ (1 − ρ), ρ = moved_k ÷ moved_(k−1).
+    const rho = lastMoved > 0 ? Math.min(RHO_MAX, moved / lastMoved) : RHO_MAX;
+    residual = sweep < 2 ? Infinity : (moved * rho) / (1 - rho);
+    lastMoved = moved;
+  }
+  let cycleUs = 0;
+  outcomes.forEach((o, s) => (cycleUs += pi[s] * o.cycleUs));
+  const results = classes.map((c, i) => {
+    let successes = 0;
+    outcomes.forEach((o, s) => (successes += pi[s] * o.dataSuccess[i]));
+    return {
+      name: c.name,
+      stations: c.stations,
+      p: p[i],
+      goodputMbps: (successes * c.payloadBits) / cycleUs,
+      airtimeShare: (successes * (c.successUs + aifsMin)) / cycleUs,
+    };
+  });
+  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual };
+}
