@@ -56,6 +56,8 @@ export interface InputCell {
   value?: Value;
   /** Array formula range (legacy `{=…}` / stored spill), e.g. "D2:E9". */
   arrayRange?: Area;
+  /** Why the reader will not let this formula run (it becomes a #REF! cell with this message). */
+  refused?: string;
 }
 
 export interface InputSheet {
@@ -357,7 +359,7 @@ export class Recalc implements Book {
       const key = cellKey(c.row, c.col);
       if (c.formula !== undefined && c.formula.trim() !== "") {
         const formula = c.formula.trim().replace(/^=/, "");
-        const node: Node = { sheet: state, row: c.row, col: c.col, formula, ast: this.parse(formula, c.formulaHost ?? c), state: 0, value: null, deps: [], mayArray: false };
+        const node: Node = { sheet: state, row: c.row, col: c.col, formula, ast: c.refused ? err("#REF!", c.refused) : this.parse(formula, c.formulaHost ?? c), state: 0, value: null, deps: [], mayArray: false };
         const a = c.arrayRange;
         if (a) {
           const cells = (a.bottom - a.top + 1) * (a.right - a.left + 1);
