@@ -624,12 +624,12 @@ export class Recalc implements Book {
         if (def && !seenNames.has(key) && seenNames.size < 64) {
           seenNames.add(key);
           this.references(def.ast, def.host, out, seenNames);
-        }
+        } else if (!def && ast.sheet === undefined) this.references({ kind: "table", table: ast.name, items: [], columns: [] }, host, out, seenNames);
         return;
       }
       case "table": {
-        const t = this.table(ast.table, host);
-        if (t) out.push({ sheet: t.sheet as SheetState, top: t.top, left: t.left, bottom: t.bottom, right: t.right });
+        const r = this.evaluator.eval(ast, host, undefined); // the exact rows and columns it names ([#This Row] included)
+        if (isRef(r)) out.push({ sheet: r.sheet as SheetState, top: r.top, left: r.left, bottom: r.bottom, right: r.right });
         return;
       }
       case "unary":

@@ -121,7 +121,10 @@ export class Evaluator {
     const key = name.toUpperCase();
     if (sheetName === undefined && env?.has(key)) return env.get(key)!;
     const def = this.book.name(name, host.sheet, sheetName);
-    if (!def) return err("#NAME?", `${name} is not a defined name, a table or a function`);
+    if (!def) {
+      if (sheetName === undefined && this.book.table(name, host)) return this.tableRef({ kind: "table", table: name, items: [], columns: [] }, host); // a bare table name is its data rows
+      return err("#NAME?", `${name} is not a defined name, a table or a function`);
+    }
     if (this.nameDepth.includes(key) || this.nameDepth.length > 32) return err("#NAME?", `the name ${name} refers to itself`);
     this.nameDepth.push(key);
     try {

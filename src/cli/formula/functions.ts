@@ -11,6 +11,7 @@
  */
 import * as formulajs from "@formulajs/formulajs";
 import type { Ast } from "./ast";
+import { ceiling, ceilingMath, floor, floorMath, mround, roundDigits } from "./rounding";
 import { Evaluator, finite, lift1, type Env, type FunctionImpl, type Host } from "./evaluate";
 import { compareValues, err, isCellError, isMatrix, isRef, NA, parseNumberText, toBoolean, toNumber, toText, VALUE, type CellError, type EvalValue, type Matrix, type Ref, type Value } from "./values";
 
@@ -37,6 +38,7 @@ export function serialOfDate(y: number, m: number, d: number): number {
 
 /** A formulajs result as a cell value: its Error objects carry Excel's code as the message; Dates become serials. */
 function fromLibrary(r: unknown): Value | Matrix {
+  if (isCellError(r)) return r;
   if (r instanceof Error) return err(r.message && r.message.startsWith("#") ? r.message : "#VALUE!");
   if (r instanceof Date) return serialOfDate(r.getFullYear(), r.getMonth(), r.getDate()) + (r.getHours() * 3600 + r.getMinutes() * 60 + r.getSeconds()) / 86400;
   if (typeof r === "number") return finite(r);
@@ -263,7 +265,7 @@ function ifsAggregate(name: string, kind: "sum" | "avg" | "max" | "min", single:
     if (kind === "sum") return finite(sumOf(xs));
     if (kind === "avg") return xs.length ? finite(sumOf(xs) / xs.length) : err("#DIV/0!", `${name}: no cell matches`);
     if (!xs.length) return 0;
-    return kind === "max" ? Math.max(...xs) : Math.min(...xs);
+    return kind === "max" ? xs.reduce((a, b) => (b > a ? b : a)) : xs.reduce((a, b) => (b < a ? b : a));
   };
 }
 
@@ -699,6 +701,22 @@ const SORT: FunctionImpl = (ev, args, host, env) => {
   return byCol ? transpose(sorted) : sorted;
 };
 
+/** SMALL / LARGE: the k-th smallest or largest number of a range (text, logical values and blanks skipped). */
+function kth(name: "SMALL" | "LARGE"): FunctionImpl {
+  return (ev, args, host, env) => {
+    const bad = arity(name, args, 2, 2);
+    if (bad) return bad;
+    const xs = numbersOf(ev, [ev.eval(args[0], host, env)]);
+    if (isCellError(xs)) return xs;
+    const k = oneNumber(ev, args[1], host, env, 1);
+    if (isCellError(k)) return k;
+    const i = Math.ceil(k);
+    if (i < 1 || i > xs.length) return err("#NUM!", `${name}: k = ${k} with ${xs.length} numbers`);
+    const sorted = xs.sort((a, b) => a - b);
+    return name === "SMALL" ? sorted[i - 1] : sorted[sorted.length - i];
+  };
+}
+
 const MMULT: FunctionImpl = (ev, args, host, env) => {
   const bad = arity("MMULT", args, 2, 2);
   if (bad) return bad;
@@ -812,6 +830,8 @@ export function nativeFunctions(): Fns {
   f.set("UNIQUE", UNIQUE);
   f.set("SORT", SORT);
   f.set("MMULT", MMULT);
+  f.set("SMALL", kth("SMALL"));
+  f.set("LARGE", kth("LARGE"));
   f.set("TRANSPOSE", TRANSPOSE);
   f.set("TRUE", () => true);
   f.set("FALSE", () => false);
@@ -836,21 +856,12 @@ export function nativeFunctions(): Fns {
 
   // Scalar functions from @formulajs/formulajs (kinds: n number, s text, a any).
   const lib: [string, Kind[], number, string][] = [
-    ["ROUND", ["n", "n"], 2, "ROUND"],
-    ["ROUNDUP", ["n", "n"], 2, "ROUNDUP"],
-    ["ROUNDDOWN", ["n", "n"], 2, "ROUNDDOWN"],
-    ["CEILING", ["n", "n"], 2, "CEILING"],
-    ["CEILING.MATH", ["n", "n", "n"], 1, "CEILINGMATH"],
-    ["FLOOR", ["n", "n"], 2, "FLOOR"],
-    ["FLOOR.MATH", ["n", "n", "n"], 1, "FLOORMATH"],
-    ["MROUND", ["n", "n"], 2, "MROUND"],
     ["ABS", ["n"], 1, "ABS"],
     ["LOG10", ["n"], 1, "LOG10"],
     ["POWER", ["n", "n"], 2, "POWER"],
     ["SQRT", ["n"], 1, "SQRT"],
     ["MOD", ["n", "n"], 2, "MOD"],
     ["INT", ["n"], 1, "INT"],
-    ["VALUE", ["s"], 1, "VALUE"],
     ["LEN", ["s"], 1, "LEN"],
     ["LEFT", ["s", "n"], 1, "LEFT"],
     ["RIGHT", ["s", "n"], 1, "RIGHT"],
@@ -863,6 +874,19 @@ export function nativeFunctions(): Fns {
     ["EDATE", ["n", "n"], 2, "EDATE"],
     ["TEXT", ["a", "s"], 2, "TEXT"],
   ];
+  // Rounding and VALUE by hand (rounding.ts says why; formulajs's VALUE("abc") is 0, not #VALUE!).
+  const own: [string, Kind[], number, (...a: never[]) => Value][] = [
+    ["ROUND", ["n", "n"], 2, (x: number, d: number) => roundDigits(x, d, "nearest")],
+    ["ROUNDUP", ["n", "n"], 2, (x: number, d: number) => roundDigits(x, d, "up")],
+    ["ROUNDDOWN", ["n", "n"], 2, (x: number, d: number) => roundDigits(x, d, "down")],
+    ["CEILING", ["n", "n"], 2, ceiling],
+    ["CEILING.MATH", ["n", "n", "n"], 1, ceilingMath],
+    ["FLOOR", ["n", "n"], 2, floor],
+    ["FLOOR.MATH", ["n", "n", "n"], 1, floorMath],
+    ["MROUND", ["n", "n"], 2, mround],
+    ["VALUE", ["s"], 1, (s: string) => parseNumberText(s) ?? VALUE(`VALUE: ${JSON.stringify(s.slice(0, 40))} is not a number`)],
+  ];
+  for (const [name, kinds, min, impl] of own) f.set(name, scalarFn(name, kinds, min, impl as (...a: unknown[]) => unknown));
   for (const [name, kinds, min, libName] of lib) {
     const impl = fj[libName];
     if (typeof impl !== "function") throw new Error(`@formulajs/formulajs has no ${libName}`);
