@@ -35,6 +35,7 @@ import { HostError, type AirtallyFunction } from "./bundle";
 import { MAX_COL, type Ast } from "./formula/ast";
 import { Evaluator, MAX_ARRAY_CELLS, type Book, type FunctionImpl, type Host, type TableInfo } from "./formula/evaluate";
 import { nativeFunctions } from "./formula/functions";
+import { Grid } from "./grid";
 import { FormulaSyntaxError, parseFormula } from "./formula/parse";
 import { err, isCellError, isMatrix, isRef, VALUE, type CellError, type EvalValue, type Matrix, type Value } from "./formula/values";
 import { NAMESPACE, STORED_PREFIX } from "./storedForm";
@@ -111,8 +112,20 @@ export interface SpillArea {
   stored: boolean;
 }
 
+export interface ResultSheet {
+  name: string;
+  /** Every non-empty cell, row-major (built on first use; prefer `each` for large sheets). */
+  readonly cells: CellResult[];
+  /** The same cells one at a time. */
+  each(): Iterable<CellResult>;
+  /** One cell, or undefined when empty. */
+  at(row: number, col: number): CellResult | undefined;
+  /** Positions [row, col] of the cells spills filled. */
+  spilledCells(): [number, number][];
+}
+
 export interface RecalcResult {
-  sheets: { name: string; cells: CellResult[] }[];
+  sheets: ResultSheet[];
   /** Formula and spilled cells whose value is an error. */
   errors: CellResult[];
   /** Each circular reference, as the addresses of its cells ("Sheet!A1"). */
@@ -138,16 +151,24 @@ interface Node {
   value: Value;
   deps: Node[];
   mayArray: boolean;
+  /** Tarjan's bookkeeping (index -1: not visited) and the graph builder's de-duplication stamp. */
+  index: number;
+  low: number;
+  onStack: boolean;
+  stamp: number;
 }
+
+/** One shared empty list for formulas that read no other formula. */
+const NO_DEPS: Node[] = [];
 
 interface SheetState {
   name: string;
   index: number;
-  constants: Map<number, Value>;
-  formulas: Map<number, Node>;
+  constants: Grid<Value>;
+  formulas: Grid<Node>;
   /** Cells covered by a stored array formula → its node. */
-  owned: Map<number, Node>;
-  spilled: Map<number, { value: Value; anchor: Node }>;
+  owned: Grid<Node>;
+  spilled: Grid<{ value: Value; anchor: Node }>;
   /** Rows holding formulas, per column, ascending (to find the formulas inside a range). */
   formulaRows: Map<number, number[]>;
   /** Formulas that may spill and are not evaluated yet. */
@@ -319,11 +340,11 @@ export class Recalc implements Book {
   private readonly cycles: string[][] = [];
   private readonly spillAreas: SpillArea[] = [];
   private readonly evaluator: Evaluator;
-  private readonly astCache = new Map<string, Ast | CellError>();
+  private readonly astCache = new WeakMap<object, { text: string; ast: Ast | CellError }>();
   private depth = 0;
 
   constructor(
-    book: InputBook,
+    book: InputBook | null,
     airtally: Map<string, AirtallyFunction>,
     private readonly options: RecalcOptions = {},
   ) {
@@ -337,75 +358,85 @@ export class Recalc implements Book {
       }
     }
     this.evaluator = new Evaluator(this, this.functions);
+    if (!book) return; // loaded cell by cell: addSheets, addCell, finishLoading
+    this.addSheets(book.sheets.map((s) => s.name));
     book.sheets.forEach((s, index) => {
-      const state: SheetState = { name: s.name, index, constants: new Map(), formulas: new Map(), owned: new Map(), spilled: new Map(), formulaRows: new Map(), pendingSpills: [], maxRow: 0, maxCol: 0 };
-      this.sheets.push(state);
-      this.byName.set(s.name.toUpperCase(), state);
+      for (const c of s.cells) this.addCell(index, c);
     });
-    book.sheets.forEach((s, index) => this.loadCells(this.sheets[index], s.cells));
-    for (const n of book.names ?? []) this.addName(n);
-    for (const t of book.tables ?? []) {
+    this.finishLoading(book.names ?? [], book.tables ?? []);
+  }
+
+  /** The sheets, in workbook order (first step of loading cell by cell). */
+  addSheets(names: string[]): void {
+    for (const name of names) {
+      const state: SheetState = { name, index: this.sheets.length, constants: new Grid(), formulas: new Grid(), owned: new Grid(), spilled: new Grid(), formulaRows: new Map(), pendingSpills: [], maxRow: 0, maxCol: 0 };
+      this.sheets.push(state);
+      this.byName.set(name.toUpperCase(), state);
+    }
+  }
+
+  /** One cell of sheet number `index` (a streaming reader hands cells over as it reads them). */
+  addCell(index: number, c: InputCell): void {
+    const state = this.sheets[index];
+    if (c.row > state.maxRow) state.maxRow = c.row;
+    if (c.col > state.maxCol) state.maxCol = c.col;
+    if (c.formula !== undefined && c.formula.trim() !== "") {
+      const formula = c.formula.trim().replace(/^=/, "");
+      const node: Node = { sheet: state, row: c.row, col: c.col, formula, ast: c.refused ? err("#REF!", c.refused) : this.parse(formula, c.formulaHost ?? c, c.formulaHost !== undefined), state: 0, value: null, deps: NO_DEPS, mayArray: false, index: -1, low: -1, onStack: false, stamp: -1 };
+      const a = c.arrayRange;
+      if (a) {
+        const cells = (a.bottom - a.top + 1) * (a.right - a.left + 1);
+        if (cells > MAX_ARRAY_CELLS) node.ast = err("#NUM!", `the array formula covers ${areaText(a)}, over the limit of ${MAX_ARRAY_CELLS} cells`);
+        else {
+          node.arrayRange = a;
+          state.maxRow = Math.max(state.maxRow, a.bottom);
+          state.maxCol = Math.max(state.maxCol, a.right);
+        }
+      }
+      state.formulas.set(c.row, c.col, node);
+      let rows = state.formulaRows.get(c.col);
+      if (!rows) state.formulaRows.set(c.col, (rows = []));
+      insertSorted(rows, c.row);
+      this.nodes.push(node);
+    } else if (c.value !== undefined && c.value !== null) {
+      state.constants.set(c.row, c.col, c.value);
+    }
+  }
+
+  /** Last step of loading: array formula ranges, names, tables. */
+  finishLoading(names: InputName[], tables: InputTable[]): void {
+    // Cells inside a stored array formula's range are its output, not constants.
+    for (const node of this.nodes) {
+      const a = node.arrayRange;
+      if (!a) continue;
+      const state = node.sheet;
+      for (let r = a.top; r <= a.bottom; r++)
+        for (let c = a.left; c <= a.right; c++) {
+          if (r === node.row && c === node.col) continue;
+          state.owned.set(r, c, node);
+          state.constants.delete(r, c);
+        }
+    }
+    for (const n of names) this.addName(n);
+    for (const t of tables) {
       const sheet = this.byName.get(t.sheet.toUpperCase());
       if (sheet) this.tables.push({ name: t.name, sheet, top: t.area.top, left: t.area.left, bottom: t.area.bottom, right: t.area.right, headerRows: t.headerRows, totalsRows: t.totalsRows, columns: t.columns });
     }
     for (const node of this.nodes) if (!isCellError(node.ast)) node.mayArray = mayArray(node.ast, this.matrixFns);
-    for (const s of this.sheets) s.pendingSpills = [...s.formulas.values()].filter((n) => n.mayArray && !n.arrayRange);
+    for (const s of this.sheets) s.pendingSpills = s.formulas.values().filter((n) => n.mayArray && !n.arrayRange);
   }
 
-  private loadCells(state: SheetState, cells: InputCell[]): void {
-    for (const c of cells) {
-      state.maxRow = Math.max(state.maxRow, c.row);
-      state.maxCol = Math.max(state.maxCol, c.col);
-      const key = cellKey(c.row, c.col);
-      if (c.formula !== undefined && c.formula.trim() !== "") {
-        const formula = c.formula.trim().replace(/^=/, "");
-        const node: Node = { sheet: state, row: c.row, col: c.col, formula, ast: c.refused ? err("#REF!", c.refused) : this.parse(formula, c.formulaHost ?? c), state: 0, value: null, deps: [], mayArray: false };
-        const a = c.arrayRange;
-        if (a) {
-          const cells = (a.bottom - a.top + 1) * (a.right - a.left + 1);
-          if (cells > MAX_ARRAY_CELLS) node.ast = err("#NUM!", `the array formula covers ${areaText(a)}, over the limit of ${MAX_ARRAY_CELLS} cells`);
-          else {
-            node.arrayRange = a;
-            state.maxRow = Math.max(state.maxRow, a.bottom);
-            state.maxCol = Math.max(state.maxCol, a.right);
-          }
-        }
-        state.formulas.set(key, node);
-        let rows = state.formulaRows.get(c.col);
-        if (!rows) state.formulaRows.set(c.col, (rows = []));
-        insertSorted(rows, c.row);
-        this.nodes.push(node);
-      } else if (c.value !== undefined && c.value !== null) {
-        state.constants.set(key, c.value);
-      }
-    }
-    // Cells inside a stored array formula's range are its output, not constants.
-    for (const node of state.formulas.values()) {
-      const a = node.arrayRange;
-      if (!a) continue;
-      for (let r = a.top; r <= a.bottom; r++)
-        for (let c = a.left; c <= a.right; c++) {
-          if (r === node.row && c === node.col) continue;
-          const k = cellKey(r, c);
-          state.owned.set(k, node);
-          state.constants.delete(k);
-        }
-    }
-  }
-
-  /** Parse once per (text, host): a shared formula's cells all reuse the first cell's tree. */
-  private parse(text: string, host: { row: number; col: number }): Ast | CellError {
-    const key = `${host.row},${host.col},${text}`;
-    const hit = this.astCache.get(key);
-    if (hit) return hit;
+  /** Parse once per shared formula: its cells carry the same `formulaHost` object and reuse the first cell's tree. */
+  private parse(text: string, host: { row: number; col: number }, shared: boolean): Ast | CellError {
+    const hit = shared ? this.astCache.get(host) : undefined;
+    if (hit && hit.text === text) return hit.ast;
     let ast: Ast | CellError;
     try {
       ast = parseFormula(text, host);
     } catch (e) {
       ast = thrownToError(e);
     }
-    if (this.astCache.size > 10000) this.astCache.clear(); // a bound: only shared formulas repeat
-    this.astCache.set(key, ast);
+    if (shared) this.astCache.set(host, { text, ast });
     return ast;
   }
 
@@ -449,15 +480,13 @@ export class Recalc implements Book {
     const s = sheet as SheetState;
     for (const n of [...s.pendingSpills]) if (n.row <= bottom && n.col <= right) this.evaluate(n);
     const keys: number[] = [];
-    const take = (k: number) => {
-      const r = keyRow(k);
-      const c = keyCol(k);
-      if (r >= top && r <= bottom && c >= left && c <= right) keys.push(k);
+    const take = (r: number, c: number) => {
+      if (r >= top && r <= bottom && c >= left && c <= right) keys.push(cellKey(r, c));
     };
-    for (const k of s.constants.keys()) take(k);
-    for (const k of s.formulas.keys()) take(k);
-    for (const k of s.spilled.keys()) take(k);
-    for (const k of s.owned.keys()) if (!s.spilled.has(k)) take(k);
+    s.constants.forEach(take);
+    s.formulas.forEach(take);
+    s.spilled.forEach(take);
+    s.owned.forEach((r, c) => (s.spilled.has(r, c) ? undefined : take(r, c)));
     keys.sort((a, b) => a - b);
     return keys.map((k) => [keyRow(k), keyCol(k)]);
   }
@@ -478,18 +507,17 @@ export class Recalc implements Book {
   /** The value of any cell, evaluating what it needs first. */
   value(sheet: unknown, row: number, col: number): Value {
     const s = sheet as SheetState;
-    const k = cellKey(row, col);
-    const node = s.formulas.get(k);
+    const node = s.formulas.get(row, col);
     if (node) {
       if (node.state !== 2) this.evaluate(node);
       return node.value;
     }
-    const c = s.constants.get(k);
+    const c = s.constants.get(row, col);
     if (c !== undefined) return c;
-    const owner = s.owned.get(k);
+    const owner = s.owned.get(row, col);
     if (owner && owner.state !== 2) this.evaluate(owner);
     else if (s.pendingSpills.length && !owner) this.settleSpillsCovering(s, row, col);
-    const spill = s.spilled.get(k);
+    const spill = s.spilled.get(row, col);
     return spill ? spill.value : null;
   }
 
@@ -560,9 +588,8 @@ export class Recalc implements Book {
     for (let r = area.top; r <= area.bottom; r++)
       for (let c = area.left; c <= area.right; c++) {
         if (r === node.row && c === node.col) continue;
-        const k = cellKey(r, c);
-        const other = s.spilled.get(k);
-        if (s.formulas.has(k) || s.constants.has(k) || s.owned.has(k) || (other && other.anchor !== node)) {
+        const other = s.spilled.get(r, c);
+        if (s.formulas.has(r, c) || s.constants.has(r, c) || s.owned.has(r, c) || (other && other.anchor !== node)) {
           node.value = { error: SPILL, message: `the result needs ${h}×${w} cells (${areaText(area)}) but ${address(r, c)} is not empty` };
           return;
         }
@@ -571,7 +598,7 @@ export class Recalc implements Book {
     for (let i = 0; i < h; i++)
       for (let j = 0; j < w; j++) {
         if (i === 0 && j === 0) continue;
-        s.spilled.set(cellKey(node.row + i, node.col + j), { value: clean[i][j], anchor: node });
+        s.spilled.set(node.row + i, node.col + j, { value: clean[i][j], anchor: node });
       }
     s.maxRow = Math.max(s.maxRow, area.bottom);
     s.maxCol = Math.max(s.maxCol, area.right);
@@ -593,7 +620,7 @@ export class Recalc implements Book {
     for (let r = a.top; r <= a.bottom; r++)
       for (let c = a.left; c <= a.right; c++) {
         if (r === node.row && c === node.col) continue;
-        node.sheet.spilled.set(cellKey(r, c), { value: at(r - a.top, c - a.left), anchor: node });
+        node.sheet.spilled.set(r, c, { value: at(r - a.top, c - a.left), anchor: node });
       }
     this.spillAreas.push({ sheet: node.sheet.name, anchor: { row: node.row, col: node.col }, area: a, stored: true });
   }
@@ -601,7 +628,7 @@ export class Recalc implements Book {
   // ------------------------------------------------------------ dependency graph
 
   /** Every cell and range a formula tree reads (names and table columns resolved). */
-  private references(ast: Ast, host: Host, out: { sheet: SheetState; top: number; left: number; bottom: number; right: number }[], seenNames: Set<string>): void {
+  private references(ast: Ast, host: Host, out: { sheet: SheetState; top: number; left: number; bottom: number; right: number }[], seenNames: Set<string> | undefined): void {
     const sheetOf = (name: string | undefined) => (name === undefined ? (host.sheet as SheetState) : this.byName.get(name.toUpperCase()));
     const at = (c: { row: number; col: number; rowAbs: boolean; colAbs: boolean }) => ({ row: c.rowAbs ? c.row : c.row + host.row, col: c.colAbs ? c.col : c.col + host.col });
     switch (ast.kind) {
@@ -621,6 +648,7 @@ export class Recalc implements Book {
       case "name": {
         const def = this.name(ast.name, host.sheet, ast.sheet);
         const key = `${ast.sheet ?? ""}|${ast.name.toUpperCase()}`;
+        seenNames ??= new Set();
         if (def && !seenNames.has(key) && seenNames.size < 64) {
           seenNames.add(key);
           this.references(def.ast, def.host, out, seenNames);
@@ -652,27 +680,28 @@ export class Recalc implements Book {
   private buildGraph(): void {
     const arrayNodes = this.nodes.filter((n) => n.arrayRange);
     const refs: { sheet: SheetState; top: number; left: number; bottom: number; right: number }[] = [];
+    let stamp = 0;
     for (const node of this.nodes) {
       if (isCellError(node.ast)) continue;
       refs.length = 0;
-      this.references(node.ast, { sheet: node.sheet, row: node.row, col: node.col }, refs, new Set());
-      const seen = new Set<Node>();
+      this.references(node.ast, { sheet: node.sheet, row: node.row, col: node.col }, refs, undefined);
+      const mark = stamp++;
       const add = (n: Node | undefined) => {
-        if (n && !seen.has(n)) {
-          seen.add(n);
+        if (n && n.stamp !== mark) {
+          n.stamp = mark;
+          if (node.deps === NO_DEPS) node.deps = [];
           node.deps.push(n);
         }
       };
       for (const ref of refs) {
         const s = ref.sheet;
         if (ref.top === ref.bottom && ref.left === ref.right) {
-          const k = cellKey(ref.top, ref.left);
-          add(s.formulas.get(k) ?? s.owned.get(k));
+          add(s.formulas.get(ref.top, ref.left) ?? s.owned.get(ref.top, ref.left));
           continue;
         }
         const width = ref.right - ref.left + 1;
         const visitColumn = (col: number, rows: number[]) => {
-          for (let i = lowerBound(rows, ref.top); i < rows.length && rows[i] <= ref.bottom; i++) add(s.formulas.get(cellKey(rows[i], col)));
+          for (let i = lowerBound(rows, ref.top); i < rows.length && rows[i] <= ref.bottom; i++) add(s.formulas.get(rows[i], col));
         };
         if (width <= s.formulaRows.size) {
           for (let col = ref.left; col <= ref.right; col++) {
@@ -688,54 +717,54 @@ export class Recalc implements Book {
     }
   }
 
-  /** Tarjan's strongly connected components, iterative; returns components dependencies first. */
-  private components(): Node[][] {
-    const index = new Map<Node, number>();
-    const low = new Map<Node, number>();
-    const onStack = new Set<Node>();
+  /**
+   * Tarjan's strongly connected components, iterative, with the bookkeeping
+   * on the nodes themselves (a million formulas need no maps). Returns every
+   * node dependencies first, and the components that are circular.
+   */
+  private components(): { order: Node[]; cyclic: Node[][] } {
     const stack: Node[] = [];
-    const out: Node[][] = [];
+    const order: Node[] = [];
+    const cyclic: Node[][] = [];
     let next = 0;
+    const work: { node: Node; i: number }[] = [];
+    const visit = (n: Node) => {
+      n.index = n.low = next++;
+      n.onStack = true;
+      stack.push(n);
+      work.push({ node: n, i: 0 });
+    };
     for (const root of this.nodes) {
-      if (index.has(root)) continue;
-      const work: { node: Node; i: number }[] = [{ node: root, i: 0 }];
-      index.set(root, next);
-      low.set(root, next++);
-      stack.push(root);
-      onStack.add(root);
+      if (root.index >= 0) continue;
+      visit(root);
       while (work.length) {
         const top = work[work.length - 1];
-        if (top.i < top.node.deps.length) {
-          const d = top.node.deps[top.i++];
-          if (!index.has(d)) {
-            index.set(d, next);
-            low.set(d, next++);
-            stack.push(d);
-            onStack.add(d);
-            work.push({ node: d, i: 0 });
-          } else if (onStack.has(d)) {
-            low.set(top.node, Math.min(low.get(top.node)!, index.get(d)!));
-          }
+        const node = top.node;
+        if (top.i < node.deps.length) {
+          const d = node.deps[top.i++];
+          if (d.index < 0) visit(d);
+          else if (d.onStack && d.index < node.low) node.low = d.index;
           continue;
         }
         work.pop();
         if (work.length) {
           const parent = work[work.length - 1].node;
-          low.set(parent, Math.min(low.get(parent)!, low.get(top.node)!));
+          if (node.low < parent.low) parent.low = node.low;
         }
-        if (low.get(top.node) === index.get(top.node)) {
-          const comp: Node[] = [];
+        if (node.low === node.index) {
+          const start = order.length;
           let n: Node;
           do {
             n = stack.pop()!;
-            onStack.delete(n);
-            comp.push(n);
-          } while (n !== top.node);
-          out.push(comp);
+            n.onStack = false;
+            order.push(n);
+          } while (n !== node);
+          const size = order.length - start;
+          if (size > 1 || node.deps.includes(node)) cyclic.push(order.slice(start));
         }
       }
     }
-    return out;
+    return { order, cyclic };
   }
 
   /** Follow dependencies inside one component from `start` back to it: the cycle's path for the message. */
@@ -767,10 +796,8 @@ export class Recalc implements Book {
 
   run(): RecalcResult {
     this.buildGraph();
-    const order = this.components();
-    for (const comp of order) {
-      const selfLoop = comp.length === 1 && comp[0].deps.includes(comp[0]);
-      if (comp.length === 1 && !selfLoop) continue;
+    const { order, cyclic } = this.components();
+    for (const comp of cyclic) {
       const members = new Set(comp);
       const sorted = [...comp].sort((a, b) => a.sheet.index - b.sheet.index || a.row - b.row || a.col - b.col);
       const path = this.cyclePath(sorted[0], members);
@@ -781,50 +808,69 @@ export class Recalc implements Book {
         n.value = { error: CYCLE, message: `circular reference: ${text}` };
       }
     }
-    const total = this.nodes.length;
+    const total = order.length;
     const every = this.options.progressEvery ?? 1000;
     let done = 0;
-    for (const comp of order) {
-      for (const n of comp) {
-        this.evaluate(n);
-        done++;
-        if (this.options.onProgress && done % every === 0) this.options.onProgress(done, total);
-      }
+    for (const n of order) {
+      this.evaluate(n);
+      n.deps = NO_DEPS; // not needed once evaluated
+      done++;
+      if (this.options.onProgress && done % every === 0) this.options.onProgress(done, total);
     }
     if (this.options.onProgress && total >= every) this.options.onProgress(total, total);
-    return this.collect();
+    // A cycle found only while evaluating (through a spill) is reported like the others.
+    for (const n of this.nodes) if (isCellError(n.value) && n.value.error === CYCLE && n.value.message?.startsWith("circular reference through") && !this.cycles.some((c) => c.includes(nodeKey(n)))) this.cycles.push([nodeKey(n)]);
+    return this.result();
   }
 
-  private collect(): RecalcResult {
-    const sheets: RecalcResult["sheets"] = [];
+  /** The cell at a position as the result reports it (undefined: empty). */
+  private cellAt(s: SheetState, row: number, col: number): CellResult | undefined {
+    const base = { sheet: s.name, row, col, address: address(row, col) };
+    const n = s.formulas.get(row, col);
+    if (n) return { ...base, kind: "formula", formula: n.formula, value: n.value };
+    const sp = s.spilled.get(row, col);
+    if (sp) return { ...base, kind: "spill", value: sp.value, anchor: nodeKey(sp.anchor) };
+    const v = s.constants.get(row, col);
+    return v === undefined ? undefined : { ...base, kind: "constant", value: v };
+  }
+
+  /** Every non-empty cell of a sheet in row-major order, without building them all at once. */
+  private *cellsOf(s: SheetState): Generator<CellResult> {
+    const keys = new Float64Array(s.constants.size + s.formulas.size + s.spilled.size);
+    let i = 0;
+    s.formulas.forEach((r, c) => (keys[i++] = cellKey(r, c)));
+    s.spilled.forEach((r, c) => (keys[i++] = cellKey(r, c)));
+    s.constants.forEach((r, c) => (s.spilled.has(r, c) || s.formulas.has(r, c) ? undefined : (keys[i++] = cellKey(r, c))));
+    const sorted = keys.subarray(0, i).sort();
+    for (const k of sorted) yield this.cellAt(s, keyRow(k), keyCol(k))!;
+  }
+
+  private result(): RecalcResult {
     const errors: CellResult[] = [];
-    for (const s of this.sheets) {
-      const cells: CellResult[] = [];
-      const base = (row: number, col: number) => ({ sheet: s.name, row, col, address: address(row, col) });
-      for (const [k, v] of s.constants) {
-        const row = keyRow(k);
-        const col = keyCol(k);
-        if (!s.spilled.has(k)) cells.push({ ...base(row, col), kind: "constant", value: v });
-      }
-      for (const n of s.formulas.values()) {
-        const c: CellResult = { ...base(n.row, n.col), kind: "formula", formula: n.formula, value: n.value };
-        cells.push(c);
-        if (isCellError(n.value)) errors.push(c);
-      }
-      for (const [k, sp] of s.spilled) {
-        const row = keyRow(k);
-        const col = keyCol(k);
-        const c: CellResult = { ...base(row, col), kind: "spill", value: sp.value, anchor: nodeKey(sp.anchor) };
-        cells.push(c);
-        if (isCellError(sp.value) && !isCellError(sp.anchor.value)) errors.push(c);
-      }
-      cells.sort((a, b) => a.row - b.row || a.col - b.col);
-      sheets.push({ name: s.name, cells });
-    }
+    for (const n of this.nodes) if (isCellError(n.value)) errors.push(this.cellAt(n.sheet, n.row, n.col)!);
+    for (const s of this.sheets)
+      s.spilled.forEach((r, c, sp) => (isCellError(sp.value) && !isCellError(sp.anchor.value) ? errors.push(this.cellAt(s, r, c)!) : undefined));
+    errors.sort((a, b) => this.byName.get(a.sheet.toUpperCase())!.index - this.byName.get(b.sheet.toUpperCase())!.index || a.row - b.row || a.col - b.col);
+    const engine = this;
+    const sheets: ResultSheet[] = this.sheets.map((s) => {
+      let cached: CellResult[] | undefined;
+      return {
+        name: s.name,
+        get cells() {
+          return (cached ??= [...engine.cellsOf(s)]);
+        },
+        each: () => this.cellsOf(s),
+        at: (row: number, col: number) => this.cellAt(s, row, col),
+        spilledCells: () => {
+          const out: [number, number][] = [];
+          s.spilled.forEach((r, c) => out.push([r, c]));
+          return out;
+        },
+      };
+    });
     return { sheets, errors, cycles: this.cycles, spills: this.spillAreas, formulaCount: this.nodes.length };
   }
 }
-
 /** Recalculate a workbook model. Never throws for a bad cell: errors are cell values. */
 export function recalc(book: InputBook, airtally: Map<string, AirtallyFunction>, options?: RecalcOptions): RecalcResult {
   return new Recalc(book, airtally, options).run();

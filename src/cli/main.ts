@@ -11,8 +11,8 @@
 import * as fs from "fs";
 import * as path from "path";
 import { DEFAULT_DIST, loadAirtally, type AirtallyFunction } from "./bundle";
-import { evaluateFormula, isCellError, recalc, type Value } from "./engine";
-import { errorList, formatValue, printable, sheetTable } from "./table";
+import { evaluateFormula, isCellError, Recalc, type Value } from "./engine";
+import { errorList, formatValue, printable, printSheet } from "./table";
 import { loadPackage, type LoadedBook } from "./xlsxRead";
 import { sameFile, writePackage } from "./xlsxWrite";
 import { RefusedInput, ZIP_LIMITS } from "./zip";
@@ -93,9 +93,14 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
     io.err(`airtally: --out ${printable(outFile)} is the input workbook; choose another file (the input is never overwritten)\n`);
     return EXIT.usage;
   }
+  const onTerminal = io.isTTY ?? (io === defaultIo && !!process.stderr.isTTY);
+  const engine = new Recalc(null, functions, {
+    progressEvery: 10000,
+    onProgress: onTerminal ? (done, total) => io.err(`\rairtally: ${done}/${total} formulas`) : undefined,
+  });
   let loaded: LoadedBook;
   try {
-    loaded = await loadPackage(file);
+    loaded = await loadPackage(file, { sheets: (names) => engine.addSheets(names), cell: (i, c) => engine.addCell(i, c) });
   } catch (e) {
     const why = e instanceof Error ? e.message : String(e);
     io.err(e instanceof RefusedInput ? `airtally: ${printable(file)}: ${printable(why)}\n` : `airtally: cannot read ${printable(file)} as an .xlsx workbook: ${printable(why)}\n`);
@@ -104,17 +109,14 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
   try {
     const missing = only.filter((n) => !loaded.book.sheets.some((s) => s.name.toUpperCase() === n.toUpperCase()));
     if (missing.length) return usage(io, `no sheet named ${missing.map(printable).join(", ")} (sheets: ${loaded.book.sheets.map((s) => printable(s.name)).join(", ")})`);
-    const onTerminal = io.isTTY ?? (io === defaultIo && !!process.stderr.isTTY);
-    const result = recalc(loaded.book, functions, {
-      progressEvery: 10000,
-      onProgress: onTerminal ? (done, total) => io.err(`\rairtally: ${done}/${total} formulas`) : undefined,
-    });
+    engine.finishLoading(loaded.book.names ?? [], loaded.book.tables ?? []);
+    const result = engine.run();
     if (onTerminal && result.formulaCount >= 10000) io.err("\n");
-    loaded.book.sheets.length = 0; // the input cells are no longer needed
     if (!quiet) {
       for (const s of result.sheets) {
         if (only.length && !only.some((n) => n.toUpperCase() === s.name.toUpperCase())) continue;
-        io.out(sheetTable(s.name, s.cells) + "\n");
+        printSheet(s.name, () => s.each(), io.out);
+        io.out("\n");
       }
     }
     const errors = errorList(result);

@@ -26,32 +26,59 @@ function clip(text: string): string {
   return text.length > MAX_WIDTH ? `${text.slice(0, MAX_WIDTH - 1)}…` : text;
 }
 
-/** One sheet as a grid of its used rows and columns, with column letters and row numbers. */
-export function sheetTable(name: string, cells: CellResult[]): string {
-  if (cells.length === 0) return `== ${printable(name)} == (empty)\n`;
-  const colSet = new Set<number>();
-  for (const c of cells) colSet.add(c.col);
-  const cols = [...colSet].sort((a, b) => a - b);
-  const colIndex = new Map(cols.map((c, i) => [c, i + 1]));
-  const rows = new Map<number, string[]>();
-  for (const c of cells) {
-    let line = rows.get(c.row);
-    if (!line) {
-      line = Array<string>(cols.length + 1).fill("");
-      line[0] = String(c.row);
-      rows.set(c.row, line);
-    }
-    line[colIndex.get(c.col)!] = clip(formatValue(c.value));
+/**
+ * One sheet as a grid of its used rows and columns, with column letters and
+ * row numbers, written line by line: a first pass over the cells measures
+ * the columns, a second writes the rows (a million-row sheet is never held
+ * as text).
+ */
+export function printSheet(name: string, each: () => Iterable<CellResult>, write: (text: string) => void): void {
+  const widths = new Map<number, number>();
+  let rowWidth = 0;
+  let any = false;
+  for (const c of each()) {
+    any = true;
+    const w = clip(formatValue(c.value)).length;
+    widths.set(c.col, Math.max(widths.get(c.col) ?? columnLetters(c.col).length, w));
+    rowWidth = Math.max(rowWidth, String(c.row).length);
   }
-  const header = ["", ...cols.map(columnLetters)];
-  const used = [header, ...[...rows.entries()].sort((a, b) => a[0] - b[0]).map(([, line]) => line)];
-  const widths = header.map(() => 0);
-  for (const line of used) for (let j = 0; j < line.length; j++) if (line[j].length > widths[j]) widths[j] = line[j].length;
+  if (!any) {
+    write(`== ${printable(name)} == (empty)\n`);
+    return;
+  }
+  const cols = [...widths.keys()].sort((a, b) => a - b);
+  const at = new Map(cols.map((c, i) => [c, i]));
   const numeric = (s: string) => /^-?[\d.]+(e[-+]\d+)?$/.test(s);
-  const line = (row: string[]) => row.map((s, j) => (j > 0 && numeric(s) ? s.padStart(widths[j]) : s.padEnd(widths[j]))).join(" | ").trimEnd();
-  const out = [`== ${printable(name)} ==`, line(used[0]), widths.map((w) => "-".repeat(w)).join("-+-")];
-  for (const row of used.slice(1)) out.push(line(row));
-  return out.join("\n") + "\n";
+  const line = (label: string, cells: string[]) =>
+    [label.padEnd(rowWidth), ...cells.map((s, j) => (numeric(s) ? s.padStart(widths.get(cols[j])!) : s.padEnd(widths.get(cols[j])!)))].join(" | ").trimEnd();
+  write(`== ${printable(name)} ==\n${line("", cols.map(columnLetters))}\n${[rowWidth, ...cols.map((c) => widths.get(c)!)].map((w) => "-".repeat(w)).join("-+-")}\n`);
+  let row = -1;
+  let cells: string[] = [];
+  let batch = "";
+  const flush = () => {
+    if (row >= 0) batch += line(String(row), cells) + "\n";
+    if (batch.length > 1 << 16) {
+      write(batch);
+      batch = "";
+    }
+  };
+  for (const c of each()) {
+    if (c.row !== row) {
+      flush();
+      row = c.row;
+      cells = cols.map(() => "");
+    }
+    cells[at.get(c.col)!] = clip(formatValue(c.value));
+  }
+  flush();
+  write(batch);
+}
+
+/** One sheet as a grid (the whole text; for small sheets and tests). */
+export function sheetTable(name: string, cells: CellResult[]): string {
+  let out = "";
+  printSheet(name, () => cells, (t) => (out += t));
+  return out;
 }
 
 /** Every error cell with its message, and every circular reference. */

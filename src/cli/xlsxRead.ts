@@ -148,8 +148,7 @@ function cellValue(type: string | undefined, text: string, strings: string[]): V
 }
 
 /** One sheet part, streamed: constants, formulas (shared ones point at their first cell), array ranges. */
-async function readSheet(pkg: ZipPackage, part: string, strings: string[]): Promise<{ cells: InputCell[]; tableParts: string[] }> {
-  const cells: InputCell[] = [];
+async function readSheet(pkg: ZipPackage, part: string, strings: string[], emit: (c: InputCell) => void): Promise<{ tableParts: string[] }> {
   const tableParts: string[] = [];
   const shared = new Map<string, { formula: string; host: { row: number; col: number } }>();
   let row = 0;
@@ -228,16 +227,22 @@ async function readSheet(pkg: ZipPackage, part: string, strings: string[]): Prom
       }
       const v = cellValue(type, valueText, strings);
       if (v !== undefined) cell.value = v;
-      if (cell.formula !== undefined || cell.value !== undefined) cells.push(cell);
+      if (cell.formula !== undefined || cell.value !== undefined) emit(cell);
       text = "";
     });
   });
   void text;
-  return { cells, tableParts };
+  return { tableParts };
 }
 
 /** Read an .xlsx package: sheets, defined names (workbook and sheet scope), tables. Throws RefusedInput for what the limits refuse. */
-export async function loadPackage(file: string): Promise<LoadedBook> {
+/** Where a streaming caller takes cells as they are read (the book's sheets then hold no cells). */
+export interface CellSink {
+  sheets(names: string[]): void;
+  cell(sheetIndex: number, cell: InputCell): void;
+}
+
+export async function loadPackage(file: string, sink?: CellSink): Promise<LoadedBook> {
   const pkg = await openPackage(file);
   try {
     const root = await relationships(pkg, "");
@@ -272,10 +277,15 @@ export async function loadPackage(file: string): Promise<LoadedBook> {
     const strings = await sharedStrings(pkg, sstPart);
     const book: InputBook = { sheets: [], names, tables: [] };
     const parts: SheetPart[] = [];
-    for (const s of sheetList) {
+    const worksheets = sheetList.filter((s) => {
       const rel = rels.get(s.rid);
-      if (!rel || !/worksheet$/.test(rel.type) || !pkg.has(rel.target)) continue; // chart sheets, dialog sheets
-      const { cells, tableParts } = await readSheet(pkg, rel.target, strings);
+      return rel && /worksheet$/.test(rel.type) && pkg.has(rel.target); // not chart or dialog sheets
+    });
+    sink?.sheets(worksheets.map((s) => s.name));
+    for (const [index, s] of worksheets.entries()) {
+      const rel = rels.get(s.rid)!;
+      const cells: InputCell[] = [];
+      const { tableParts } = await readSheet(pkg, rel.target, strings, sink ? (c) => sink.cell(index, c) : (c) => cells.push(c));
       book.sheets.push({ name: s.name, cells });
       parts.push({ name: s.name, part: rel.target });
       if (tableParts.length) {

@@ -75,9 +75,13 @@ class SheetPatcher extends Transform {
   private done = false;
   private readonly pendingRows: number[];
 
-  constructor(private readonly patches: Map<number, Map<number, Patch>>) {
+  /** `patch`: the new content of a cell (undefined: leave it); `spilled`: per row, the columns a spill filled. */
+  constructor(
+    private readonly patch: (row: number, col: number) => Patch | undefined,
+    private readonly spilled: Map<number, number[]>,
+  ) {
     super();
-    this.pendingRows = [...patches.keys()].sort((a, b) => a - b);
+    this.pendingRows = [...spilled.keys()].sort((a, b) => a - b);
   }
 
   override _transform(chunk: Buffer, _enc: string, cb: (e?: Error | null) => void): void {
@@ -111,8 +115,8 @@ class SheetPatcher extends Transform {
     let out = "";
     while (this.pendingRows.length && this.pendingRows[0] < before) {
       const r = this.pendingRows.shift()!;
-      const cells = [...this.patches.get(r)!.entries()].sort((a, b) => a[0] - b[0]);
-      out += `<row r="${r}">${cells.map(([c, p]) => newCell(r, c, p)).join("")}</row>`;
+      const cols = [...this.spilled.get(r)!].sort((a, b) => a - b);
+      out += `<row r="${r}">${cols.map((c) => newCell(r, c, this.patch(r, c)!)).join("")}</row>`;
     }
     return out;
   }
@@ -166,13 +170,14 @@ class SheetPatcher extends Transform {
     const row = rm ? Number(rm[1]) : this.lastRow + 1;
     this.lastRow = row;
     const before = this.synthesizedRows(row);
-    const patches = this.patches.get(row);
-    if (!patches) return before + rowXml;
-    const idx = this.pendingRows.indexOf(row);
-    if (idx >= 0) this.pendingRows.splice(idx, 1);
+    const spilledCols = this.spilled.get(row);
+    if (spilledCols) {
+      const idx = this.pendingRows.indexOf(row);
+      if (idx >= 0) this.pendingRows.splice(idx, 1);
+    }
     const selfClosing = openTag.endsWith("/>");
     const inner = selfClosing ? "" : rowXml.slice(openTag.length, rowXml.length - "</row>".length);
-    const left = new Map(patches);
+    const left = new Set(spilledCols ?? []);
     const out: string[] = [];
     let col = 0;
     let rest = inner;
@@ -184,13 +189,13 @@ class SheetPatcher extends Transform {
       const text = m[0];
       const r = /^<c\b[^>]*?\sr="([A-Z]+\d+)"/.exec(text);
       col = r ? parseAddress(r[1]).col : col + 1;
-      const p = left.get(col);
-      if (p) left.delete(col);
+      const p = this.patch(row, col);
+      left.delete(col);
       pieces.push({ col, xml: (inner.slice(last, m.index) || "") + (p ? patchCell(text, p) : text) });
       last = m.index + text.length;
     }
     rest = inner.slice(last);
-    for (const [c, p] of left) pieces.push({ col: c, xml: newCell(row, c, p) });
+    for (const c of left) pieces.push({ col: c, xml: newCell(row, c, this.patch(row, c)!) });
     pieces.sort((a, b) => a.col - b.col);
     for (const piece of pieces) out.push(piece.xml);
     const open = selfClosing ? openTag.replace(/\/>$/, ">") : openTag;
@@ -205,19 +210,26 @@ function patchWorkbook(xml: string): string {
   return xml.replace(after, `${after}<calcPr fullCalcOnLoad="1"/>`);
 }
 
-function patchesOf(result: RecalcResult, sheet: string): Map<number, Map<number, Patch>> {
-  const byRow = new Map<number, Map<number, Patch>>();
-  const s = result.sheets.find((x) => x.name === sheet);
-  if (!s) return byRow;
-  const arrays = new Map<string, string>();
-  for (const sp of result.spills) if (sp.sheet === sheet && !sp.stored) arrays.set(address(sp.anchor.row, sp.anchor.col), areaText(sp.area));
-  for (const c of s.cells) {
-    if (c.kind === "constant") continue;
-    let row = byRow.get(c.row);
-    if (!row) byRow.set(c.row, (row = new Map()));
-    row.set(c.col, { value: c.value, formula: c.kind === "formula", arrayRef: c.kind === "formula" ? arrays.get(c.address) : undefined });
+/** What to write for each cell of one sheet, looked up as the sheet streams (no copy of the results). */
+function patcherFor(result: RecalcResult, sheet: string): SheetPatcher {
+  const s = result.sheets.find((x) => x.name === sheet)!;
+  const arrays = new Map<number, Map<number, string>>();
+  for (const sp of result.spills) {
+    if (sp.sheet !== sheet || sp.stored) continue;
+    if (!arrays.has(sp.anchor.row)) arrays.set(sp.anchor.row, new Map());
+    arrays.get(sp.anchor.row)!.set(sp.anchor.col, areaText(sp.area));
   }
-  return byRow;
+  const spilled = new Map<number, number[]>();
+  for (const [r, c] of s.spilledCells()) {
+    if (!spilled.has(r)) spilled.set(r, []);
+    spilled.get(r)!.push(c);
+  }
+  const patch = (row: number, col: number): Patch | undefined => {
+    const c = s.at(row, col);
+    if (!c || c.kind === "constant") return undefined;
+    return { value: c.value, formula: c.kind === "formula", arrayRef: c.kind === "formula" ? arrays.get(row)?.get(col) : undefined };
+  };
+  return new SheetPatcher(patch, spilled);
 }
 
 /** True when two paths name the same file (also through symbolic and hard links). */
@@ -269,7 +281,7 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
         continue;
       }
       const stream = await pkg.bounded(name);
-      const body = sheetOf.has(name) ? stream.pipe(new SheetPatcher(patchesOf(result, sheetOf.get(name)!))) : stream;
+      const body = sheetOf.has(name) ? stream.pipe(patcherFor(result, sheetOf.get(name)!)) : stream;
       stream.on("error", (e) => body.destroy(e));
       zip.addReadStream(body, name, opts);
       await new Promise<void>((resolve) => {
