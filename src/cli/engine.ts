@@ -201,6 +201,8 @@ function mayArray(ast: Ast, matrixFns: Set<string>): boolean {
       return mayArray(ast.arg, matrixFns);
     case "binary":
       return mayArray(ast.left, matrixFns) || mayArray(ast.right, matrixFns);
+    case "chain":
+      return mayArray(ast.first, matrixFns) || ast.rest.some((a) => mayArray(a, matrixFns));
     case "call":
       if (ARRAY_RESULT.has(ast.name) || matrixFns.has(ast.name)) return true;
       if (SCALAR_RESULT.has(ast.name)) return false;
@@ -422,7 +424,14 @@ export class Recalc implements Book {
       const sheet = this.byName.get(t.sheet.toUpperCase());
       if (sheet) this.tables.push({ name: t.name, sheet, top: t.area.top, left: t.area.left, bottom: t.area.bottom, right: t.area.right, headerRows: t.headerRows, totalsRows: t.totalsRows, columns: t.columns });
     }
-    for (const node of this.nodes) if (!isCellError(node.ast)) node.mayArray = mayArray(node.ast, this.matrixFns);
+    for (const node of this.nodes) {
+      if (isCellError(node.ast)) continue;
+      try {
+        node.mayArray = mayArray(node.ast, this.matrixFns);
+      } catch (e) {
+        node.ast = thrownToError(e);
+      }
+    }
     for (const s of this.sheets) s.pendingSpills = s.formulas.values().filter((n) => n.mayArray && !n.arrayRange);
   }
 
@@ -667,6 +676,10 @@ export class Recalc implements Book {
         this.references(ast.left, host, out, seenNames);
         this.references(ast.right, host, out, seenNames);
         return;
+      case "chain":
+        this.references(ast.first, host, out, seenNames);
+        for (const a of ast.rest) this.references(a, host, out, seenNames);
+        return;
       case "call":
         for (const a of ast.args) this.references(a, host, out, seenNames);
         return;
@@ -684,7 +697,12 @@ export class Recalc implements Book {
     for (const node of this.nodes) {
       if (isCellError(node.ast)) continue;
       refs.length = 0;
-      this.references(node.ast, { sheet: node.sheet, row: node.row, col: node.col }, refs, undefined);
+      try {
+        this.references(node.ast, { sheet: node.sheet, row: node.row, col: node.col }, refs, undefined);
+      } catch (e) {
+        node.ast = thrownToError(e); // a tree too deep to walk is an error cell, never a crash
+        continue;
+      }
       const mark = stamp++;
       const add = (n: Node | undefined) => {
         if (n && n.stamp !== mark) {

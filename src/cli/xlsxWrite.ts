@@ -270,6 +270,8 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
       out.on("error", reject);
       zip.outputStream.on("error", reject);
     });
+    let writeError: unknown;
+    finished.catch((e) => (writeError = e)); // observed now, thrown below: an early failure must not go unhandled
     zip.outputStream.pipe(out);
     const failures: Error[] = [];
     for (const name of pkg.names()) {
@@ -292,6 +294,7 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
         });
       });
       if (failures.length) throw failures[0];
+      if (writeError) throw writeError;
     }
     zip.end();
     await finished;

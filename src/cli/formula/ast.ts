@@ -27,6 +27,8 @@ export type Ast =
   | { kind: "call"; name: string; args: Ast[] }
   | { kind: "unary"; op: "-" | "+" | "%"; arg: Ast }
   | { kind: "binary"; op: string; left: Ast; right: Ast }
+  /** A run of left-associative operators of one precedence (1+2+3+…), kept flat so a long sum nests nothing. */
+  | { kind: "chain"; first: Ast; ops: string[]; rest: Ast[] }
   | { kind: "array"; rows: Ast[][] };
 
 export const MAX_ROW = 1048576;

@@ -102,6 +102,11 @@ export class Evaluator {
       }
       case "binary":
         return this.binary(ast.op, this.arrayOrValue(this.eval(ast.left, host, env)), this.arrayOrValue(this.eval(ast.right, host, env)));
+      case "chain": {
+        let acc = this.arrayOrValue(this.eval(ast.first, host, env));
+        for (let i = 0; i < ast.rest.length; i++) acc = this.binary(ast.ops[i], acc, this.arrayOrValue(this.eval(ast.rest[i], host, env)));
+        return acc;
+      }
       case "call": {
         const f = this.functions.get(ast.name);
         if (!f) return err("#NAME?", `${ast.name} is not a function the command line computes`);

@@ -237,12 +237,16 @@ export function parseFormula(text: string, host: { row: number; col: number }): 
 
   /** A left-associative level of binary operators over the next level down. */
   const level = (ops: string[], next: () => Ast) => (): Ast => {
-    let left = next();
+    const first = next();
+    const opsSeen: string[] = [];
+    const rest: Ast[] = [];
     while (toks[p]?.t === "op" && ops.includes((toks[p] as { v: string }).v)) {
-      const op = (toks[p++] as { v: string }).v;
-      left = { kind: "binary", op, left, right: next() };
+      opsSeen.push((toks[p++] as { v: string }).v);
+      rest.push(next());
     }
-    return left;
+    if (rest.length === 0) return first;
+    if (rest.length === 1) return { kind: "binary", op: opsSeen[0], left: first, right: rest[0] };
+    return { kind: "chain", first, ops: opsSeen, rest };
   };
   const power = level(["^"], () => percent());
   const multiplicative = level(["*", "/"], power);

@@ -15,7 +15,7 @@ import { workbookParts, zipParts, type FixtureBook } from "./writeXlsx";
  * `shared` stores the filled-down formulas as shared formulas (as the host
  * saves a filled column); otherwise each row has its own text.
  */
-export async function budgetBook(file: string, rows: number, shared: boolean): Promise<void> {
+export async function budgetBook(file: string, rows: number, shared: boolean, expectedDays?: number): Promise<void> {
   const book: FixtureBook = { sheets: [{ name: "Budget", cells: [] }] };
   const parts = new Map<string, string | NodeJS.ReadableStream>(workbookParts(book));
   const head = '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"><sheetData>';
@@ -29,7 +29,9 @@ export async function budgetBook(file: string, rows: number, shared: boolean): P
         return;
       }
       if (r > last) {
-        this.push(`<row r="${last + 1}"><c r="D${last + 1}"><f>SUM(D2:D${last})</f></c><c r="E${last + 1}"><f>SUM(D:D)-D${last + 1}</f></c></row></sheetData></worksheet>`);
+        // With an expected total, F is 1/(total = expected): #DIV/0! (exit code 1) if the engine's total differs.
+        const check = expectedDays === undefined ? "" : `<c r="F${last + 1}"><f>1/(E${last + 1}=${expectedDays})</f></c>`;
+        this.push(`<row r="${last + 1}"><c r="D${last + 1}"><f>SUM(D2:D${last})</f></c><c r="E${last + 1}"><f>SUM(D:D)-D${last + 1}</f></c>${check}</row></sheetData></worksheet>`);
         this.push(null);
         return;
       }
