@@ -120,6 +120,8 @@ export interface ResultSheet {
   each(): Iterable<CellResult>;
   /** One cell, or undefined when empty. */
   at(row: number, col: number): CellResult | undefined;
+  /** A cell's kind and value only (cheap, for walking a large sheet). */
+  peek(row: number, col: number): { kind: CellKind; value: Value } | undefined;
   /** Positions [row, col] of the cells spills filled. */
   spilledCells(): [number, number][];
 }
@@ -879,6 +881,14 @@ export class Recalc implements Book {
         },
         each: () => this.cellsOf(s),
         at: (row: number, col: number) => this.cellAt(s, row, col),
+        peek: (row: number, col: number) => {
+          const n = s.formulas.get(row, col);
+          if (n) return { kind: "formula" as const, value: n.value };
+          const sp = s.spilled.get(row, col);
+          if (sp) return { kind: "spill" as const, value: sp.value };
+          const v = s.constants.get(row, col);
+          return v === undefined ? undefined : { kind: "constant" as const, value: v };
+        },
         spilledCells: () => {
           const out: [number, number][] = [];
           s.spilled.forEach((r, c) => out.push([r, c]));

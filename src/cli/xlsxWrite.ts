@@ -124,6 +124,9 @@ class SheetPatcher extends Transform {
   private pump(final: boolean): void {
     let pos = 0;
     const b = this.buf;
+    // Where sheetData ends in this buffer (searched once per chunk, not once per row).
+    const close = b.indexOf("</sheetData>");
+    const empty = b.indexOf("<sheetData/>");
     for (;;) {
       if (this.done) {
         this.send(b.slice(pos));
@@ -131,17 +134,15 @@ class SheetPatcher extends Transform {
         break;
       }
       const i = b.indexOf("<row", pos);
-      const j = b.indexOf("</sheetData>", pos);
-      const emptyData = b.indexOf("<sheetData/>", pos);
-      if (emptyData >= 0 && (i < 0 || emptyData < i)) {
-        this.send(b.slice(pos, emptyData) + `<sheetData>${this.synthesizedRows(Infinity)}</sheetData>`);
-        pos = emptyData + "<sheetData/>".length;
+      if (empty >= pos && (i < 0 || empty < i)) {
+        this.send(b.slice(pos, empty) + `<sheetData>${this.synthesizedRows(Infinity)}</sheetData>`);
+        pos = empty + "<sheetData/>".length;
         this.done = true;
         continue;
       }
-      if (j >= 0 && (i < 0 || j < i)) {
-        this.send(b.slice(pos, j) + this.synthesizedRows(Infinity));
-        pos = j;
+      if (close >= pos && (i < 0 || close < i)) {
+        this.send(b.slice(pos, close) + this.synthesizedRows(Infinity));
+        pos = close;
         this.done = true;
         continue;
       }
@@ -151,14 +152,13 @@ class SheetPatcher extends Transform {
         pos = keep;
         break;
       }
-      const close = b.indexOf(">", i);
-      if (close < 0) break;
-      const selfClosing = b[close - 1] === "/";
-      const end = selfClosing ? close + 1 : b.indexOf("</row>", close);
+      const tagEnd = b.indexOf(">", i);
+      if (tagEnd < 0) break;
+      const selfClosing = b[tagEnd - 1] === "/";
+      const end = selfClosing ? tagEnd + 1 : b.indexOf("</row>", tagEnd);
       if (end < 0) break;
       const rowEnd = selfClosing ? end : end + "</row>".length;
-      this.send(b.slice(pos, i));
-      this.send(this.patchRow(b.slice(i, rowEnd), b.slice(i, close + 1)));
+      this.send(b.slice(pos, i) + this.patchRow(b.slice(i, rowEnd), b.slice(i, tagEnd + 1)));
       pos = rowEnd;
     }
     this.buf = b.slice(pos);
@@ -225,7 +225,7 @@ function patcherFor(result: RecalcResult, sheet: string): SheetPatcher {
     spilled.get(r)!.push(c);
   }
   const patch = (row: number, col: number): Patch | undefined => {
-    const c = s.at(row, col);
+    const c = s.peek(row, col);
     if (!c || c.kind === "constant") return undefined;
     return { value: c.value, formula: c.kind === "formula", arrayRef: c.kind === "formula" ? arrays.get(row)?.get(col) : undefined };
   };
@@ -277,7 +277,9 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
     for (const name of pkg.names()) {
       if (name.endsWith("/")) continue;
       const entry = pkg.entry(name);
-      const opts = { mtime: entry.getLastModDate(), compress: entry.compressionMethod !== 0 };
+      // Large parts at deflate level 1: several times faster, a somewhat larger file.
+      const level = entry.compressionMethod === 0 ? 0 : entry.uncompressedSize > 16 * 1024 * 1024 ? 1 : 6;
+      const opts = { mtime: entry.getLastModDate(), compressionLevel: level };
       if (name === loaded.workbookPart) {
         zip.addBuffer(Buffer.from(patchWorkbook(await pkg.text(name)), "utf8"), name, opts);
         continue;
