@@ -39,7 +39,8 @@ both forms are read.
 Exit codes:
   0  every formula has a value
   1  some cells are errors (#VALUE!, #N/A, #SPILL!, ...; listed with messages)
-  2  usage error, unreadable file, or the add-in is not built
+  2  usage error, unreadable or refused file (limits below), --out not writable
+     or the input itself, or the add-in is not built
   3  the workbook has a circular reference (#CYCLE!, listed per cell)
 
 Limits (a workbook past one is refused with exit code 2, naming the part):

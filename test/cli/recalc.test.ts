@@ -61,7 +61,7 @@ describe("recalc: values", () => {
     expect(at(run({ A1: "=B7+1" }), "A1")).toBe(1);
   });
 
-  it("gives MAX, which fast-formula-parser lacks, Excel's result", () => {
+  it("gives MAX over a range Excel's result (text in a range is skipped)", () => {
     expect(at(run({ A1: 3, A2: 8, A3: "text", A4: "=MAX(A1:A3)" }), "A4")).toBe(8);
   });
 });
@@ -146,6 +146,11 @@ describe("recalc: spills", () => {
 describe("eval", () => {
   it("evaluates one formula", () => {
     expect(evaluateFormula('=AIRTALLY.TXTIME("OFDM 6Mbps 5GHz",100)', functions)).toBe(TXTIME_OFDM6_100);
+  });
+
+  it("refuses text past 32 767 characters instead of growing it", () => {
+    const v = evaluateFormula(`=${Array.from({ length: 9 }, () => `"${"a".repeat(4000)}"`).join("&")}`, functions) as { error: string };
+    expect(v.error).toBe("#VALUE!");
   });
 });
 

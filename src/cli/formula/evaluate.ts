@@ -8,6 +8,8 @@ import { compareValues, err, isCellError, isMatrix, isRef, toNumber, toText, VAL
 
 /** More cells than this in one array (not an aggregate over a reference) is refused rather than risk memory. */
 export const MAX_ARRAY_CELLS = 5_000_000;
+/** Characters in one text value (Excel's cell limit). */
+export const MAX_TEXT = 32767;
 
 export interface Host {
   sheet: unknown;
@@ -290,7 +292,10 @@ export function binaryScalar(op: string, a: Value, b: Value): Value {
     case "&": {
       const x = toText(a);
       const y = toText(b);
-      return isCellError(x) ? x : isCellError(y) ? y : x + y;
+      if (isCellError(x)) return x;
+      if (isCellError(y)) return y;
+      // Excel's cell text limit: a longer result is #VALUE!, not a string that grows without bound.
+      return x.length + y.length > MAX_TEXT ? VALUE(`the text would be ${x.length + y.length} characters; the limit is ${MAX_TEXT}`) : x + y;
     }
     case "=":
       return compareValues(a, b) === 0;
