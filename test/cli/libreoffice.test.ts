@@ -76,7 +76,7 @@ describe("the coverage workbook", () => {
             const ref = theirs.get(`${CASES_SHEET}!${row + i},${(c.twin !== undefined ? THEIRS_COL : OURS_COL) + j}`);
             compared++;
             if (c.divergence) {
-              if (show(mine).split(" ")[0] !== c.divergence.excel || show(ref).replace(/^"|"$/g, "") !== c.divergence.libreOffice)
+              if (show(mine).split(" (")[0] !== c.divergence.excel || show(ref).replace(/^"|"$/g, "") !== c.divergence.libreOffice)
                 problems.push(`${c.id}: expected the documented divergence (airtally ${c.divergence.excel}, LibreOffice ${c.divergence.libreOffice}), got airtally ${show(mine)}, LibreOffice ${show(ref)}`);
               else divergent.push(`${c.id}: ${c.divergence.why}`);
             } else if (typeof ref === "number" && ref === WRONG_CACHE) problems.push(`${c.id}: LibreOffice did not recompute`);

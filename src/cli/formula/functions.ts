@@ -872,7 +872,6 @@ export function nativeFunctions(): Fns {
     ["TRIM", ["s"], 1, "TRIM"],
     ["DATE", ["n", "n", "n"], 3, "DATE"],
     ["EDATE", ["n", "n"], 2, "EDATE"],
-    ["TEXT", ["a", "s"], 2, "TEXT"],
   ];
   // Rounding and VALUE by hand (rounding.ts says why; formulajs's VALUE("abc") is 0, not #VALUE!).
   const own: [string, Kind[], number, (...a: never[]) => Value][] = [
@@ -887,12 +886,37 @@ export function nativeFunctions(): Fns {
     ["VALUE", ["s"], 1, (s: string) => parseNumberText(s) ?? VALUE(`VALUE: ${JSON.stringify(s.slice(0, 40))} is not a number`)],
   ];
   for (const [name, kinds, min, impl] of own) f.set(name, scalarFn(name, kinds, min, impl as (...a: unknown[]) => unknown));
+  f.set("TEXT", scalarFn("TEXT", ["a", "s"], 2, text));
   for (const [name, kinds, min, libName] of lib) {
     const impl = fj[libName];
     if (typeof impl !== "function") throw new Error(`@formulajs/formulajs has no ${libName}`);
     f.set(name, scalarFn(name, kinds, min, impl));
   }
   return f;
+}
+
+/**
+ * TEXT: the number part of the format (0 # , . and %) through formulajs,
+ * literal text around it (quoted, or $ € £ spaces, signs) added here because
+ * formulajs drops it; any other format (dates, times, scientific, sections,
+ * colours) is #VALUE! saying so — formulajs would print the serial number.
+ */
+function text(value: unknown, format: unknown): unknown {
+  const fmt = String(format);
+  const m = /^((?:"[^"]*"|[ $€£+\-()])*)([0#,.]*[0#][0#,.]*%?)((?:"[^"]*"|[ $€£+\-()%])*)$/.exec(fmt);
+  if (!m) return VALUE(`TEXT: the format ${JSON.stringify(fmt.slice(0, 40))} is not supported here (number formats of 0 # , . % with literal text around them)`);
+  let n: unknown = value;
+  if (typeof n === "string") {
+    const parsed = parseNumberText(n);
+    if (parsed === undefined) return n;
+    n = parsed;
+  }
+  if (typeof n === "boolean") return n ? "TRUE" : "FALSE";
+  const literal = (s: string) => s.replace(/"([^"]*)"/g, "$1");
+  const x = n as number;
+  const body = fj.TEXT(Math.abs(x), m[2]);
+  if (body instanceof Error) return body;
+  return `${x < 0 ? "-" : ""}${literal(m[1])}${body}${literal(m[3])}`;
 }
 
 function refPart(v: EvalValue, part: "row" | "col"): Value | Matrix {
