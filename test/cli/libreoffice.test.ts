@@ -89,6 +89,24 @@ describe("the coverage workbook", () => {
     240_000,
   );
 
+  withLibreOffice(
+    "writes --out as a package both LibreOffice and exceljs open, its cached values the recalculated ones",
+    async () => {
+      const out = path.join(dir, "coverage-out.xlsx");
+      expect(await main(["recalc", file, "--quiet", "--out", out], { out: () => undefined, err: () => undefined })).toBe(1);
+      const cached = await storedValues(out);
+      const wb = new ExcelJS.Workbook();
+      await wb.xlsx.readFile(out);
+      const opened = await storedValues(recalcWithLibreOffice(soffice.bin!, out));
+      const rows = caseRows();
+      const stale = CASES.filter((c) => !c.spill && !c.twin && !c.divergence)
+        .map((c) => `${CASES_SHEET}!${rows.get(c.id)},${OURS_COL}`)
+        .filter((k) => !sameValue(cached.get(k), ours.get(k)) || !sameValue(opened.get(k), ours.get(k)));
+      expect([wb.worksheets.length, stale]).toEqual([3, []]);
+    },
+    240_000,
+  );
+
   it("computes an AIRTALLY call in the workbook as the core does", async () => {
     const f = path.join(dir, "airtally-call.xlsx");
     await writeXlsx(f, { sheets: [{ name: "S", cells: [{ ref: "A1", value: "OFDM 6Mbps 5GHz" }, { ref: "B1", formula: "_xldudf_AIRTALLY_TXTIME(A1,100)+Data", cached: WRONG_CACHE }] }], names: [{ name: "Data", text: "0" }] });
