@@ -170,7 +170,7 @@ export function criterion(c: Value): (v: Value) => boolean {
   if (isCellError(c)) return (v) => isCellError(v) && v.error === c.error;
   if (typeof c === "number") return (v) => (typeof v === "number" && v === c) || (typeof v === "string" && parseNumberText(v) === c);
   if (typeof c === "boolean") return (v) => v === c;
-  if (c === null) return (v) => v === 0 && false;
+  if (c === null) return criterion(0); // an empty criterion cell means 0 (matches zeros, not blanks)
   const m = /^(<=|>=|<>|<|>|=)?([\s\S]*)$/.exec(c)!;
   const op = m[1] ?? "=";
   const rest = m[2];

@@ -268,6 +268,11 @@ export const CASES: CoverageCase[] = [
   { id: "SUMIF <>", formula: `SUMIF(${D}A2:A6,"<>a",${D}C2:C6)` },
   { id: "COUNTIF wildcard escape", formula: `COUNTIF(${D}A2:A6,"b~*")` },
   { id: "AVERAGE with logical argument", formula: "AVERAGE(1,TRUE,3)" },
+  { id: "COUNTIF blank criterion cell", formula: `COUNTIF(${D}Q2:Q6,${D}Q9)` },
+  { id: "COUNTIF zero criterion", formula: `COUNTIF(${D}Q2:Q6,0)` },
+  { id: "SUMIF blank criterion cell", formula: `SUMIF(${D}Q2:Q6,${D}Q9,${D}C2:C6)` },
+  { id: "COUNTIF TRUE", formula: `COUNTIF(${D}Q2:Q6,TRUE)` },
+  { id: "COUNTIF \"TRUE\"", formula: `COUNTIF(${D}Q2:Q6,"TRUE")` },
   { id: "MAX of nothing", formula: `MAX(${D}A2:A6)` },
   { id: "TEXT date", formula: 'TEXT(DATE(2026,3,5),"yyyy-mm-dd")', divergence: { excel: "#VALUE!", libreOffice: "2026-03-05", why: "date and time formats in TEXT are not supported here: an error cell, not a guess" } },
   { id: "TEXT integer", formula: 'TEXT(1234.567,"0")' },
@@ -334,6 +339,8 @@ export function coverageBook(): FixtureBook {
     cell("A5", "c"), cell("B5", "west"), cell("C5", 90), cell("D5", 5), cell("E5", 7), cell("F5", 40), cell("G5", "t40"),
     cell("A6", "bb"), cell("B6", "north"), cell("C6", 2300), cell("D6", 1), cell("F6", 50), cell("G6", "t50"),
     cell("A8", "z"),
+    // a mixed column for criteria: 0, blank (Q3), text, TRUE, 5
+    cell("Q2", 0), cell("Q4", "x"), cell("Q5", true), cell("Q6", 5),
     // a horizontal lookup table and a descending list
     ...[1, 2, 3, 4, 5].flatMap((k) => [cell(`${columnLetters(7 + k)}1`, k), cell(`${columnLetters(7 + k)}2`, `h${k}`)]),
     ...[50, 40, 30, 20, 10].map((v, i) => cell(`J${4 + i}`, v)),
