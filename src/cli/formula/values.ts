@@ -64,13 +64,26 @@ export function toNumber(v: Value): number | CellError {
   return v;
 }
 
-/** A number as Excel's General format writes it into text: up to 15 significant digits. */
+/**
+ * A number as it joins text (General format): plain digits from 1E-14 up to
+ * 1E+16, rounded to 15 significant digits (integers below 1E+16 exactly),
+ * scientific outside that range with a two-digit exponent ("1E-15",
+ * "1E+20"). The plain range and the digits are what the reference engine
+ * writes (checked in test/cli/libreoffice.test.ts); it writes three exponent
+ * digits ("1E+020") where the spreadsheet host writes two.
+ */
 export function numberText(n: number): string {
-  if (Object.is(n, -0)) return "0";
-  if (Number.isInteger(n) && Math.abs(n) < 1e15) return String(n);
-  const s = String(Number(n.toPrecision(15)));
-  const e = /^(-?[\d.]+)e([+-])(\d+)$/.exec(s);
-  return e ? `${e[1]}E${e[2]}${e[3].padStart(2, "0")}` : s;
+  if (n === 0) return "0";
+  const a = Math.abs(n);
+  if (Number.isInteger(n) && a < 1e16) return String(n);
+  const r = Number(n.toPrecision(15));
+  if (a >= 1e-14 && a < 1e16) {
+    if (Math.abs(r) >= 1e-6) return String(r);
+    const digits = Math.min(100, 14 - Math.floor(Math.log10(Math.abs(r))));
+    return r.toFixed(digits).replace(/\.?0+$/, "");
+  }
+  const e = /^(-?[\d.]+)e([+-])(\d+)$/.exec(r.toExponential())!;
+  return `${e[1]}E${e[2]}${e[3].padStart(2, "0")}`;
 }
 
 export function toText(v: Value): string | CellError {
