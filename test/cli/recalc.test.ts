@@ -100,6 +100,15 @@ describe("recalc: errors stay in their cells", () => {
   });
 });
 
+describe("recalc: forms the engine does not compute are error cells, never a guess", () => {
+  const forms = ["OFFSET(B1,1,0)", 'INDIRECT("B1")', "B1#", "S:T!B1", "SUM(B1:B2 B2:B3)", "SUM((B1,B2))", "LAMBDA(x,x+1)(2)", "CHAR(65)"];
+  for (const f of forms)
+    it(`=${f} is an error cell with a message`, () => {
+      const v = at(run({ A1: `=${f}`, B1: 1, B2: 2, B3: 3 }), "A1") as { error: string; message?: string };
+      expect([typeof v === "object" && v !== null && v.error.startsWith("#"), typeof v === "object" && !!v?.message]).toEqual([true, true]);
+    });
+});
+
 describe("recalc: circular references", () => {
   const r = run({ A1: "=A2+1", A2: "=A1*2", A3: "=A1", B1: 5, B2: "=B1+1" });
 

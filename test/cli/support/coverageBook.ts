@@ -208,6 +208,12 @@ export const CASES: CoverageCase[] = [
   { id: "name workbook scope", formula: "SUM(Rates)" },
   { id: "name constant", formula: "Factor*10" },
   { id: "name sheet scope", formula: "Local*2" },
+  { id: "name of other sheet scope", formula: "Data!Local+1" },
+  { id: "name formula", formula: "Pair*2" },
+  { id: "INDEX of a name", formula: "INDEX(Rates,2)" },
+  { id: "whole row", formula: `SUM(${D}2:2)` },
+  { id: "two whole columns", formula: `SUM(${D}C:D)` },
+  { id: "range to absolute end", formula: `SUM(${D}C2:$C$6)` },
   { id: "table column", formula: "SUM(Sites[Area])" },
   { id: "table calculated column", formula: "SUM(Sites[Days])" },
   // LibreOffice 7.4 does not read a lone item specifier (Sites[#All]) from a file: twins spell the same cells.
@@ -417,6 +423,7 @@ export function coverageBook(): FixtureBook {
     names: [
       { name: "Rates", text: "Data!$C$2:$C$6" },
       { name: "Factor", text: "0.7" },
+      { name: "Pair", text: "SUM(Data!$C$2:$C$3)" },
       { name: "Local", text: "100", scope: 0 },
       { name: "Local", text: "7", scope: 1 },
     ],
