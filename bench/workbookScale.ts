@@ -12,6 +12,7 @@ import { spawnSync } from "child_process";
 import * as fs from "fs";
 import * as os from "os";
 import * as path from "path";
+import { HEAP_MB } from "../src/cli/zip";
 import { budgetBook } from "../test/cli/support/bigBook";
 
 const ROOT = path.resolve(__dirname, "..");
@@ -21,7 +22,7 @@ function runChild(args: string[]): { code: number | null; seconds: number; peakM
 const { main } = require(${JSON.stringify(path.join(ROOT, "src/cli/main.ts"))});
 main(process.argv.slice(1)).then((code) => { process.stderr.write("PEAK_RSS_KB=" + process.resourceUsage().maxRSS + "\\n"); process.exitCode = code; });`;
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, ["-e", script, ...args], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
+  const r = spawnSync(process.execPath, [`--max-old-space-size=${HEAP_MB}`, "-e", script, ...args], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
   const m = /PEAK_RSS_KB=(\d+)/.exec(r.stderr ?? "");
   return { code: r.status, seconds: (performance.now() - t0) / 1000, peakMB: m ? Number(m[1]) / 1024 : NaN };
 }

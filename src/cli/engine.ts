@@ -39,6 +39,7 @@ import { Grid } from "./grid";
 import { FormulaSyntaxError, parseFormula } from "./formula/parse";
 import { err, isCellError, isMatrix, isRef, VALUE, type CellError, type EvalValue, type Matrix, type Value } from "./formula/values";
 import { NAMESPACE, STORED_PREFIX } from "./storedForm";
+import { MAX_CELLS, RefusedInput } from "./zip";
 
 export { isCellError, type CellError, type Value } from "./formula/values";
 
@@ -346,6 +347,7 @@ export class Recalc implements Book {
   private readonly evaluator: Evaluator;
   private readonly astCache = new WeakMap<object, { text: string; ast: Ast | CellError }>();
   private depth = 0;
+  private cellCount = 0;
 
   constructor(
     book: InputBook | null,
@@ -381,6 +383,7 @@ export class Recalc implements Book {
 
   /** One cell of sheet number `index` (a streaming reader hands cells over as it reads them). */
   addCell(index: number, c: InputCell): void {
+    if (++this.cellCount > MAX_CELLS) throw new RefusedInput(`refused: the workbook has more than ${MAX_CELLS} non-empty cells (limit)`);
     const state = this.sheets[index];
     if (c.row > state.maxRow) state.maxRow = c.row;
     if (c.col > state.maxCol) state.maxCol = c.col;

@@ -176,6 +176,7 @@ async function readSheet(pkg: ZipPackage, part: string, strings: string[], emit:
             row = at.row;
             col = at.col;
           } else col++;
+          if (row > 1048576 || col > 16384 || row < 1) throw new RefusedInput(`refused: part ${part} has a cell at row ${row}, column ${col}, outside the sheet's 1048576 × 16384 grid`);
           inCell = true;
           type = a.t;
           valueText = "";

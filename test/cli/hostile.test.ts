@@ -11,7 +11,7 @@ import * as fs from "fs";
 import * as os from "os";
 import * as path from "path";
 import { loadPackage } from "../../src/cli/xlsxRead";
-import { ZIP_LIMITS } from "../../src/cli/zip";
+import { HEAP_MB, MAX_CELLS, ZIP_LIMITS } from "../../src/cli/zip";
 import { budgetBook, budgetDays, deflatedFill, rawZip, type RawPart } from "./support/bigBook";
 import { workbookParts, writeXlsx, zipParts, type FixtureBook } from "./support/writeXlsx";
 
@@ -30,13 +30,13 @@ interface Run {
   seconds: number;
 }
 
-/** The command in a child process; its peak resident memory reported by the child itself at exit. */
+/** The command in a child process under the heap bound bin/airtally.js sets; its peak resident memory reported by the child itself at exit. */
 function airtally(args: string[], timeoutMs = 120_000): Run {
   const script = `require("tsx/cjs/api").register();
 const { main } = require(${JSON.stringify(path.join(ROOT, "src/cli/main.ts"))});
 main(process.argv.slice(1)).then((code) => { process.stderr.write("\\nPEAK_RSS_KB=" + process.resourceUsage().maxRSS + "\\n"); process.exitCode = code; });`;
   const t0 = Date.now();
-  const r = spawnSync(process.execPath, ["-e", script, ...args], { cwd: ROOT, encoding: "utf8", timeout: timeoutMs, maxBuffer: 64 * MiB });
+  const r = spawnSync(process.execPath, [`--max-old-space-size=${HEAP_MB}`, "-e", script, ...args], { cwd: ROOT, encoding: "utf8", timeout: timeoutMs, maxBuffer: 64 * MiB });
   const m = /PEAK_RSS_KB=(\d+)/.exec(r.stderr ?? "");
   return { code: r.status, out: r.stdout ?? "", err: (r.stderr ?? "").replace(/\nPEAK_RSS_KB=\d+\n/, ""), peakMB: m ? Number(m[1]) / 1024 : Infinity, seconds: (Date.now() - t0) / 1000 };
 }
@@ -202,6 +202,29 @@ describe("a million rows", () => {
     },
     700_000,
   );
+});
+
+describe("the heap bound", () => {
+  it("is the one bin/airtally.js runs the command under", () => {
+    expect(/const HEAP_MB = (\d+);/.exec(fs.readFileSync(path.join(ROOT, "bin/airtally.js"), "utf8"))?.[1]).toBe(String(HEAP_MB));
+  });
+
+  it(
+    `refuses a workbook of more than ${MAX_CELLS} non-empty cells while reading it (exit 2)`,
+    async () => {
+      const file = path.join(dir, "too-many-cells.xlsx");
+      await budgetBook(file, Math.ceil(MAX_CELLS / 4) + 10_000, true);
+      const r = airtally(["recalc", file, "--quiet"], 600_000);
+      report("over the cell limit", r);
+      expect([r.code, /more than 5000000 non-empty cells \(limit\)/.test(r.err), r.peakMB < MEMORY_BOUND_MB]).toEqual([2, true, true]);
+    },
+    700_000,
+  );
+
+  it("runs through bin/airtally.js with the same exit codes", () => {
+    const r = spawnSync(process.execPath, [path.join(ROOT, "bin/airtally.js"), "recalc", path.join(dir, "absent.xlsx")], { encoding: "utf8" });
+    expect(r.status).toBe(2);
+  });
 });
 
 describe("--out", () => {
