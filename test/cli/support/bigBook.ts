@@ -15,7 +15,7 @@ import { workbookParts, zipParts, type FixtureBook } from "./writeXlsx";
  * `shared` stores the filled-down formulas as shared formulas (as the host
  * saves a filled column); otherwise each row has its own text.
  */
-export async function budgetBook(file: string, rows: number, shared: boolean, expectedDays?: number): Promise<void> {
+export async function budgetBook(file: string, rows: number, shared: boolean, expectedDays?: number, extraColumns = 0): Promise<void> {
   const book: FixtureBook = { sheets: [{ name: "Budget", cells: [] }] };
   const parts = new Map<string, string | NodeJS.ReadableStream>(workbookParts(book));
   const head = '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"><sheetData>';
@@ -40,7 +40,9 @@ export async function budgetBook(file: string, rows: number, shared: boolean, ex
         const area = 100 + ((r * 7919) % 5000);
         const c = shared ? (r === 2 ? `<f t="shared" ref="C2:C${last}" si="0">B2*1.1</f>` : '<f t="shared" si="0"/>') : `<f>B${r}*1.1</f>`;
         const d = shared ? (r === 2 ? `<f t="shared" ref="D2:D${last}" si="1">ROUNDUP(C2/1000,0)</f>` : '<f t="shared" si="1"/>') : `<f>ROUNDUP(C${r}/1000,0)</f>`;
-        chunk += `<row r="${r}"><c r="A${r}" t="inlineStr"><is><t>Z${r}</t></is></c><c r="B${r}"><v>${area}</v></c><c r="C${r}">${c}</c><c r="D${r}">${d}</c></row>`;
+        let extra = "";
+        for (let k = 0; k < extraColumns; k++) extra += `<c r="${String.fromCharCode(71 + k)}${r}"><v>${k}</v></c>`; // G, H, … : plain numbers
+        chunk += `<row r="${r}"><c r="A${r}" t="inlineStr"><is><t>Z${r}</t></is></c><c r="B${r}"><v>${area}</v></c><c r="C${r}">${c}</c><c r="D${r}">${d}</c>${extra}</row>`;
       }
       this.push(chunk);
     },
