@@ -15,7 +15,8 @@ import { Transform } from "stream";
 import { StringDecoder } from "string_decoder";
 import yazl from "yazl";
 import { address, areaText, parseAddress } from "./address";
-import { CYCLE, isCellError, type RecalcResult, type Value } from "./engine";
+import { isCellError, type RecalcResult, type Value } from "./engine";
+import { EXCEL_ERRORS } from "./formula/functions";
 import type { LoadedBook } from "./xlsxRead";
 import { RefusedInput } from "./zip";
 
@@ -37,7 +38,7 @@ function escapeXml(s: string): string {
 /** Cached value markup: the t attribute and the <v>/<is> element. No cached value for our #CYCLE! (not an Excel code). */
 function valueMarkup(v: Value, formula: boolean): { t?: string; body: string } {
   if (v === null) return { body: "" };
-  if (isCellError(v)) return v.error === CYCLE ? { body: "" } : { t: "e", body: `<v>${escapeXml(v.error)}</v>` };
+  if (isCellError(v)) return !EXCEL_ERRORS.has(v.error) ? { body: "" } : { t: "e", body: `<v>${escapeXml(v.error)}</v>` }; // our #CYCLE! is not a file code
   if (typeof v === "number") return { body: `<v>${String(v)}</v>` };
   if (typeof v === "boolean") return { t: "b", body: `<v>${v ? 1 : 0}</v>` };
   return formula ? { t: "str", body: `<v>${escapeXml(v)}</v>` } : { t: "inlineStr", body: `<is><t xml:space="preserve">${escapeXml(v)}</t></is>` };

@@ -39,7 +39,7 @@ export function serialOfDate(y: number, m: number, d: number): number {
 /** A formulajs result as a cell value: its Error objects carry Excel's code as the message; Dates become serials. */
 function fromLibrary(r: unknown): Value | Matrix {
   if (isCellError(r)) return r;
-  if (r instanceof Error) return err(r.message && r.message.startsWith("#") ? r.message : "#VALUE!");
+  if (r instanceof Error) return EXCEL_ERRORS.has(r.message) ? err(r.message) : VALUE(`the function failed: ${r.message}`);
   if (r instanceof Date) return serialOfDate(r.getFullYear(), r.getMonth(), r.getDate()) + (r.getHours() * 3600 + r.getMinutes() * 60 + r.getSeconds()) / 86400;
   if (typeof r === "number") return finite(r);
   if (typeof r === "string" || typeof r === "boolean") return r;
@@ -47,6 +47,9 @@ function fromLibrary(r: unknown): Value | Matrix {
   if (Array.isArray(r)) return (r as unknown[]).map((row) => (Array.isArray(row) ? row : [row]).map((x) => fromLibrary(x) as Value));
   return VALUE("the function returned an unknown value");
 }
+
+/** The error codes a cell can hold in a file; anything else a library produces becomes #VALUE! with its text. */
+export const EXCEL_ERRORS = new Set(["#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#GETTING_DATA", "#SPILL!", "#CALC!"]);
 
 type Kind = "n" | "s" | "b" | "a";
 
