@@ -18,6 +18,9 @@
  *   5. Whole workbook: a generated 10 000-row site budget recalculated by the
  *      headless engine (src/cli) with Airtally functions vs the same budget in
  *      native formulas only (target: Airtally ≥ 3× faster).
+ *   6. Scale (bench/workbookScale.ts): rows → seconds and peak MB of
+ *      `airtally recalc` for 10^3 … 10^6 rows (BENCH_SCALE_ROWS), and
+ *      MIXSHARE over three 100 000-row ranges (target < 1 s).
  *
  * Needs a fresh `npm run build`. BENCH_MS sets the time per measurement
  * batch (default 150 ms); BENCH_ROUNDS the interleaved rounds of targeted
@@ -35,6 +38,7 @@ import * as vm from "vm";
 import { SpreadsheetError } from "../test/bundle/loadBundle";
 import { BATCH_MS, callsPerSecond as rate, fmtRate, measured } from "./harness";
 import { cases, measure, print, type Fn } from "./perFunction";
+import { workbookScale } from "./workbookScale";
 
 // The core as a library (bench/coreLibrary.ts); functions are bound once so the namespace lookups are not timed.
 const core = loadCoreLibrary();
@@ -267,23 +271,29 @@ function workbook(): boolean | null {
   return ratio >= 3;
 }
 
-function main(): void {
+/** BENCH_SECTIONS: a comma list of section numbers to run (default: all). */
+const SECTIONS = process.env.BENCH_SECTIONS ? new Set(process.env.BENCH_SECTIONS.split(",").map(Number)) : undefined;
+const runs = (n: number) => !SECTIONS || SECTIONS.has(n);
+
+async function main(): Promise<void> {
   if (!fs.existsSync(path.join(DIST, "functions.js"))) {
     console.error("dist/functions.js is missing: run `npm run build` first");
     process.exit(2);
   }
   const built = fs.statSync(path.join(DIST, "functions.js")).mtime;
   console.log(`Airtally benchmark — node ${process.version}, ${BATCH_MS} ms batches, dist built ${built.toISOString()}`);
-  const sections = process.env.BENCH_SECTIONS?.split(",").map((x) => x.trim());
-  const runs = (n: string) => sections === undefined || sections.includes(n);
   const results: boolean[] = [];
-  if (runs("1")) results.push(perFunction());
-  if (runs("2")) linkCache();
-  if (runs("3")) results.push(coldStart());
-  if (runs("4")) results.push(saturate(), edcamixCold());
-  const wb = runs("5") ? workbook() : null;
+  if (runs(1)) results.push(perFunction());
+  if (runs(2)) linkCache();
+  if (runs(3)) results.push(coldStart());
+  if (runs(4)) results.push(saturate(), edcamixCold());
+  const wb = runs(5) ? workbook() : null;
   if (wb !== null) results.push(wb);
+  if (runs(6)) results.push(await workbookScale());
   console.log(`\n${results.every(Boolean) ? "all targets met" : "some targets not met (FAIL above)"}${wb === null ? "; workbook benchmark not run" : ""}  (${measured()} measurements)`);
 }
 
-main();
+main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});

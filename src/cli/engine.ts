@@ -1,22 +1,28 @@
 /**
  * Headless recalculation of a workbook: every formula — native and
- * AIRTALLY.* — in dependency order, with fast-formula-parser (MIT) as the
- * formula engine and the built add-in (bundle.ts) for AIRTALLY.* calls.
+ * AIRTALLY.* — in dependency order. Formulas are read by formula/parse.ts and
+ * evaluated by formula/evaluate.ts with the function table of
+ * formula/functions.ts (@formulajs/formulajs for scalar functions); AIRTALLY.*
+ * calls run the built add-in (bundle.ts).
  *
  * Decisions (documented in DEVELOPERS.md, "Headless recalculation"):
- * - Order: a dependency graph from fast-formula-parser's DepParser, solved
- *   with Tarjan's strongly connected components; components come out
- *   dependencies first. A component of more than one cell (or a cell that
- *   reads itself) is a circular reference: each member gets #CYCLE! with the
- *   path, and cells that read a member get that error too.
+ * - Cells are stored sparsely (one map entry per non-empty cell), so a value
+ *   in a far corner costs one entry; whole-column references stop at the
+ *   sheet's last used row, and aggregates walk only populated cells when a
+ *   range is much larger than the sheet's content.
+ * - Order: each formula's references (cells, ranges, names, table columns)
+ *   give a dependency graph, solved with Tarjan's strongly connected
+ *   components; components come out dependencies first. A component of more
+ *   than one cell (or a cell that reads itself) is a circular reference: each
+ *   member gets #CYCLE! with the path, and cells that read a member get that
+ *   error too.
  * - Dependencies the graph cannot see (cells filled by another formula's
  *   spill) are evaluated on demand when read.
- * - Spills: a formula whose result is an array (BREAKDOWN, TXTIMEPARTS,
- *   EDCAMIX, or a native array) fills the cells below and to the right, as
- *   dynamic-array Excel does; if one of those cells is not empty the formula
- *   shows #SPILL! and fills nothing. An array formula stored with a range
- *   (`{=…}` over A1:B9) fills exactly that range: missing entries are #N/A,
- *   extra ones are cut off, as Excel does for array formulas.
+ * - Spills: a formula whose result is an array fills the cells below and to
+ *   the right, as dynamic-array Excel does; if one of those cells is not
+ *   empty the formula shows #SPILL! and fills nothing. An array formula
+ *   stored with a range (`{=…}` over A1:B9) fills exactly that range: missing
+ *   entries are #N/A, extra ones are cut off, as Excel does for array formulas.
  * - Arguments of AIRTALLY.* functions are coerced as the host does from the
  *   parameter types in functions.json; an omitted argument and an empty cell
  *   arrive as null ("use the default", DESIGN.md §4); a range given to a
@@ -24,23 +30,20 @@
  * - Errors are values: every failure stays in its cell with a code and a
  *   message; nothing here throws for a bad cell.
  */
-import FormulaParser, { DepParser, FormulaError, type CellRef, type FunctionArg, type RangeRef } from "fast-formula-parser";
 import { address, areaText, type Area } from "./address";
 import { HostError, type AirtallyFunction } from "./bundle";
+import { MAX_COL, type Ast } from "./formula/ast";
+import { Evaluator, MAX_ARRAY_CELLS, type Book, type FunctionImpl, type Host, type TableInfo } from "./formula/evaluate";
+import { nativeFunctions } from "./formula/functions";
+import { Grid } from "./grid";
+import { FormulaSyntaxError, parseFormula } from "./formula/parse";
+import { err, isCellError, isMatrix, isRef, VALUE, type CellError, type EvalValue, type Matrix, type Value } from "./formula/values";
 import { NAMESPACE, STORED_PREFIX } from "./storedForm";
+import { MAX_CELLS, RefusedInput } from "./zip";
 
-export type Scalar = number | string | boolean | null;
-export interface CellError {
-  error: string;
-  message?: string;
-}
-export type Value = Scalar | CellError;
+export { isCellError, type CellError, type Value } from "./formula/values";
 
-export function isCellError(v: unknown): v is CellError {
-  return typeof v === "object" && v !== null && typeof (v as CellError).error === "string" && !Array.isArray(v);
-}
-
-/** Excel's cycle code does not exist (Excel warns and shows 0); ours names the problem. */
+/** Excel's cycle code does not exist (Excel warns and shows 0); ours names the problem. It is never written to a file. */
 export const CYCLE = "#CYCLE!";
 export const SPILL = "#SPILL!";
 
@@ -49,10 +52,14 @@ export interface InputCell {
   col: number;
   /** Formula text without the leading "=", as stored (either AIRTALLY form). */
   formula?: string;
+  /** The cell the formula text is written for (a shared formula's first cell); default this cell. */
+  formulaHost?: { row: number; col: number };
   /** The constant, or the cached value of a formula (ignored: it is recomputed). */
   value?: Value;
   /** Array formula range (legacy `{=…}` / stored spill), e.g. "D2:E9". */
   arrayRange?: Area;
+  /** Why the reader will not let this formula run (it becomes a #REF! cell with this message). */
+  refused?: string;
 }
 
 export interface InputSheet {
@@ -60,10 +67,28 @@ export interface InputSheet {
   cells: InputCell[];
 }
 
+/** A defined name: a range (sheet + area) or any formula text; `scope` = the sheet of a sheet-scoped name. */
+export interface InputName {
+  name: string;
+  sheet?: string;
+  area?: Area;
+  formula?: string;
+  scope?: string;
+}
+
+export interface InputTable {
+  name: string;
+  sheet: string;
+  area: Area;
+  headerRows: number;
+  totalsRows: number;
+  columns: string[];
+}
+
 export interface InputBook {
   sheets: InputSheet[];
-  /** Defined names → a range on a sheet. */
-  names?: { name: string; sheet: string; area: Area }[];
+  names?: InputName[];
+  tables?: InputTable[];
 }
 
 export type CellKind = "constant" | "formula" | "spill";
@@ -88,8 +113,22 @@ export interface SpillArea {
   stored: boolean;
 }
 
+export interface ResultSheet {
+  name: string;
+  /** Every non-empty cell, row-major (built on first use; prefer `each` for large sheets). */
+  readonly cells: CellResult[];
+  /** The same cells one at a time. */
+  each(): Iterable<CellResult>;
+  /** One cell, or undefined when empty. */
+  at(row: number, col: number): CellResult | undefined;
+  /** A cell's kind and value only (cheap, for walking a large sheet). */
+  peek(row: number, col: number): { kind: CellKind; value: Value } | undefined;
+  /** Positions [row, col] of the cells spills filled. */
+  spilledCells(): [number, number][];
+}
+
 export interface RecalcResult {
-  sheets: { name: string; cells: CellResult[] }[];
+  sheets: ResultSheet[];
   /** Formula and spilled cells whose value is an error. */
   errors: CellResult[];
   /** Each circular reference, as the addresses of its cells ("Sheet!A1"). */
@@ -105,84 +144,98 @@ export interface RecalcOptions {
 }
 
 interface Node {
-  key: string;
   sheet: SheetState;
   row: number;
   col: number;
   formula: string;
+  ast: Ast | CellError;
   arrayRange?: Area;
-  state: "pending" | "busy" | "done";
+  state: 0 | 1 | 2; // pending, busy, done
   value: Value;
-  array?: Value[][];
   deps: Node[];
   mayArray: boolean;
+  /** Tarjan's bookkeeping (index -1: not visited) and the graph builder's de-duplication stamp. */
+  index: number;
+  low: number;
+  onStack: boolean;
+  stamp: number;
 }
+
+/** One shared empty list for formulas that read no other formula. */
+const NO_DEPS: Node[] = [];
 
 interface SheetState {
   name: string;
   index: number;
-  constants: Map<string, Value>;
-  formulas: Map<string, Node>;
+  constants: Grid<Value>;
+  formulas: Grid<Node>;
   /** Cells covered by a stored array formula → its node. */
-  owned: Map<string, Node>;
-  spilled: Map<string, { value: Value; anchor: Node }>;
+  owned: Grid<Node>;
+  spilled: Grid<{ value: Value; anchor: Node }>;
+  /** Rows holding formulas, per column, ascending (to find the formulas inside a range). */
+  formulaRows: Map<number, number[]>;
+  /** Formulas that may spill and are not evaluated yet. */
+  pendingSpills: Node[];
   maxRow: number;
   maxCol: number;
 }
 
 const MAX_ON_DEMAND_DEPTH = 64;
-const cellKey = (row: number, col: number) => `${row},${col}`;
+/** One number per cell: row-major, 16384 columns (Excel's grid). */
+const cellKey = (row: number, col: number) => row * MAX_COL + (col - 1);
+const keyRow = (k: number) => Math.floor(k / MAX_COL);
+const keyCol = (k: number) => (k % MAX_COL) + 1;
+const nodeKey = (n: Node) => `${n.sheet.name}!${address(n.row, n.col)}`;
 
-/** A value as fast-formula-parser expects it in a cell. */
-function toParser(v: Value): unknown {
-  if (isCellError(v)) return new FormulaError(v.error, v.message ?? undefined);
-  return v;
-}
+/** Functions whose result is one value whatever their arguments: a formula made of them never spills. */
+const SCALAR_RESULT = new Set(
+  "SUM SUMIF SUMIFS COUNT COUNTA COUNTIF COUNTIFS AVERAGE AVERAGEIF AVERAGEIFS SUMPRODUCT MAX MIN MAXIFS MINIFS MATCH VLOOKUP HLOOKUP AND OR CONCAT TEXTJOIN ROWS COLUMNS TODAY".split(" "),
+);
+const ARRAY_RESULT = new Set(["SEQUENCE", "FILTER", "UNIQUE", "SORT", "MMULT", "TRANSPOSE"]);
 
-/** A value fast-formula-parser produced, as a cell value. */
-function fromParser(v: unknown, topLevel = true): Value | Value[][] {
-  if (v instanceof FormulaError) return v.message ? { error: v.error, message: v.message } : { error: v.error };
-  if (v instanceof HostError) return { error: v.code, message: v.message || undefined };
-  if (Array.isArray(v)) {
-    if (!topLevel) return { error: "#VALUE!", message: "nested array" };
-    const rows = v.map((row) => (Array.isArray(row) ? row : [row]).map((x) => fromParser(x, false) as Value));
-    if (rows.length === 0 || rows[0].length === 0) return { error: "#VALUE!", message: "the formula returned an empty array" };
-    return rows;
+function mayArray(ast: Ast, matrixFns: Set<string>): boolean {
+  switch (ast.kind) {
+    case "area":
+    case "table":
+    case "array":
+    case "name":
+      return true;
+    case "unary":
+      return mayArray(ast.arg, matrixFns);
+    case "binary":
+      return mayArray(ast.left, matrixFns) || mayArray(ast.right, matrixFns);
+    case "chain":
+      return mayArray(ast.first, matrixFns) || ast.rest.some((a) => mayArray(a, matrixFns));
+    case "call":
+      if (ARRAY_RESULT.has(ast.name) || matrixFns.has(ast.name)) return true;
+      if (SCALAR_RESULT.has(ast.name)) return false;
+      return ast.args.some((a) => mayArray(a, matrixFns));
+    default:
+      return false;
   }
-  if (v === null || v === undefined) return 0; // a blank read by a formula shows 0, as in Excel
-  if (typeof v === "number") {
-    if (Number.isNaN(v)) return { error: "#VALUE!", message: "not a number" };
-    if (!Number.isFinite(v)) return { error: "#NUM!", message: "the result is not finite" };
-    return v === 0 ? 0 : v; // no -0
+}
+
+function lowerBound(list: number[], x: number): number {
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (list[mid] < x) lo = mid + 1;
+    else hi = mid;
   }
-  if (typeof v === "string" || typeof v === "boolean") return v;
-  return { error: "#VALUE!", message: "the formula returned a reference union or an unknown value" };
+  return lo;
 }
 
-function isBlank(v: Value | undefined): boolean {
-  return v === undefined || v === null || v === "";
+function insertSorted(list: number[], x: number): void {
+  if (!list.length || list[list.length - 1] < x) list.push(x);
+  else list.splice(lowerBound(list, x), 0, x);
 }
 
-/** Excel's reading of an exception fast-formula-parser threw (parse errors, unknown functions). */
+/** A thrown error as a cell value (the evaluator returns errors; this catches the unexpected). */
 function thrownToError(e: unknown): CellError {
-  if (e instanceof FormulaError) {
-    const details = e.details;
-    if (details instanceof FormulaError) {
-      const unknown = /^Function (\S+) is not implemented/.exec(details.message || "");
-      if (unknown) {
-        const name = unknown[1].toUpperCase();
-        const ours = name.startsWith(`${NAMESPACE}.`) || name.startsWith(`${STORED_PREFIX}${NAMESPACE}_`.toUpperCase());
-        return { error: "#NAME?", message: ours ? `${name} is not a function of this build of the add-in (dist/functions.js); check the name or run npm run build` : `${name} is not a function the command line knows` };
-      }
-      return { error: details.error, message: details.message || undefined };
-    }
-    if (e.error === "#ERROR!") {
-      const first = String(e.message || "").split("\n").find((l) => l.trim()) ?? "";
-      return { error: "#NAME?", message: `cannot read the formula: ${first.trim()}` };
-    }
-    return { error: e.error, message: e.message || undefined };
-  }
-  return { error: "#VALUE!", message: `internal error: ${e instanceof Error ? e.message : String(e)}` };
+  if (e instanceof FormulaSyntaxError) return { error: "#NAME?", message: `cannot read the formula: ${e.message}` };
+  if (e instanceof RangeError && /call stack/i.test(e.message)) return VALUE("the formula nests too deeply to evaluate");
+  return VALUE(`internal error: ${e instanceof Error ? e.message : String(e)}`);
 }
 
 // ---------------------------------------------------------------- AIRTALLY.* arguments
@@ -192,15 +245,15 @@ function describe(v: unknown): string {
 }
 
 /** One argument for a one-value parameter, coerced by the parameter's type. */
-function scalarArgument(fnName: string, p: { name: string; type: string }, raw: unknown): unknown {
-  let v = raw;
-  if (Array.isArray(v)) {
+function scalarArgument(fnName: string, p: { name: string; type: string }, raw: Value | Matrix): unknown {
+  let v: Value | Matrix = raw;
+  if (isMatrix(v)) {
     const rows = v.length;
-    const cols = rows ? (v[0] as unknown[]).length : 0;
-    if (rows === 1 && cols === 1) v = (v[0] as unknown[])[0];
-    else return new FormulaError("#VALUE!", `${fnName}: ${p.name} takes one value, got a range of ${rows}×${cols} cells`);
+    const cols = rows ? v[0].length : 0;
+    if (rows === 1 && cols === 1) v = v[0][0];
+    else return VALUE(`${fnName}: ${p.name} takes one value, got a range of ${rows}×${cols} cells`);
   }
-  if (v instanceof FormulaError) return v;
+  if (isCellError(v)) return v;
   if (v === undefined || v === null) return null;
   switch (p.type) {
     case "number":
@@ -210,7 +263,7 @@ function scalarArgument(fnName: string, p: { name: string; type: string }, raw: 
         if (v.trim() === "") return null;
         const n = Number(v.trim());
         if (Number.isFinite(n)) return n;
-        return new FormulaError("#VALUE!", `${fnName}: ${p.name} takes a number, got ${describe(v)}`);
+        return VALUE(`${fnName}: ${p.name} takes a number, got ${describe(v)}`);
       }
       return v;
     case "string":
@@ -226,323 +279,340 @@ function scalarArgument(fnName: string, p: { name: string; type: string }, raw: 
   }
 }
 
-/** One argument for a range parameter: always a 2-D array; blanks → null. */
-function matrixArgument(raw: unknown): unknown[][] | FormulaError {
-  const rows = Array.isArray(raw) ? (raw as unknown[]).map((r) => (Array.isArray(r) ? r : [r])) : [[raw]];
-  for (const row of rows) for (const v of row) if (v instanceof FormulaError) return v;
-  return rows.map((row) => row.map((v) => (v === undefined ? null : v)));
+/** The result of a registered function as a cell value or array. */
+function hostResult(v: unknown): Value | Matrix {
+  if (v instanceof HostError) return err(v.code, v.message || undefined);
+  if (Array.isArray(v)) {
+    const rows = v.map((row) => (Array.isArray(row) ? row : [row]).map((x) => hostResult(x) as Value));
+    if (rows.length === 0 || rows[0].length === 0) return VALUE("the function returned an empty array");
+    if (rows.some((r) => r.some(isMatrix))) return VALUE("the function returned a nested array");
+    return rows;
+  }
+  if (typeof v === "number") return Number.isFinite(v) ? (v === 0 ? 0 : v) : err("#NUM!", "the function returned a number that is not finite");
+  if (v === undefined) return VALUE("the function returned nothing");
+  if (v === null || typeof v === "string" || typeof v === "boolean") return v;
+  return VALUE("the function returned an unknown value");
 }
 
-/** The result of a registered function, as the parser expects it. */
-function hostResult(v: unknown): unknown {
-  if (v instanceof HostError) return new FormulaError(v.code, v.message || undefined);
-  if (Array.isArray(v)) return v.map((row) => (Array.isArray(row) ? row : [row]).map((x) => hostResult(x)));
-  if (typeof v === "number" && !Number.isFinite(v)) return new FormulaError("#NUM!", "the function returned a number that is not finite");
-  if (v === undefined) return new FormulaError("#VALUE!", "the function returned nothing");
-  return v;
-}
-
-/** A parser function that calls one registered AIRTALLY function like the host does. */
-export function hostFunction(f: AirtallyFunction): (...args: FunctionArg[]) => unknown {
+/** An evaluator function that calls one registered AIRTALLY function like the host does. */
+export function hostFunction(f: AirtallyFunction): FunctionImpl {
   const fnName = `${NAMESPACE}.${f.id}`;
-  return (...args: FunctionArg[]) => {
-    if (args.length > f.parameters.length) {
-      return new FormulaError("#VALUE!", `${fnName}: takes at most ${f.parameters.length} arguments, got ${args.length}`);
-    }
+  return (ev, args, host, env) => {
+    if (args.length > f.parameters.length) return VALUE(`${fnName}: takes at most ${f.parameters.length} arguments, got ${args.length}`);
     const values: unknown[] = [];
     for (let i = 0; i < f.parameters.length; i++) {
       const p = f.parameters[i];
       const a = args[i];
-      if (!a || a.omitted) {
-        if (!p.optional) return new FormulaError("#VALUE!", `${fnName}: ${p.name} is required`);
+      if (!a || a.kind === "blank") {
+        if (!p.optional) return VALUE(`${fnName}: ${p.name} is required`);
         values.push(null);
         continue;
       }
-      const v = p.matrix ? matrixArgument(a.value) : scalarArgument(fnName, p, a.value);
-      if (v instanceof FormulaError) return v;
+      const raw = ev.eval(a, host, env);
+      let v: unknown;
+      if (p.matrix) {
+        const m = ev.matrix(raw);
+        if (isCellError(m)) return m;
+        let bad: CellError | undefined;
+        for (const row of m) for (const x of row) if (!bad && isCellError(x)) bad = x;
+        if (bad) return bad;
+        v = m;
+      } else v = scalarArgument(fnName, p, ev.arrayOrValue(raw));
+      if (isCellError(v)) return v;
       values.push(v);
     }
     while (values.length && values[values.length - 1] === null) values.pop(); // as the host: trailing omitted arguments are absent
     try {
       return hostResult(f.fn(...values));
     } catch (e) {
-      if (e instanceof HostError) return new FormulaError(e.code, e.message || undefined);
-      return new FormulaError("#VALUE!", `internal error: ${e instanceof Error ? e.message : String(e)}`);
+      if (e instanceof HostError) return err(e.code, e.message || undefined);
+      return VALUE(`internal error: ${e instanceof Error ? e.message : String(e)}`);
     }
   };
 }
 
-// ---------------------------------------------------------------- native functions missing from the engine
-
-function flatten(args: FunctionArg[]): { numbers: number[]; error?: FormulaError; count: number } {
-  const numbers: number[] = [];
-  let count = 0;
-  for (const a of args) {
-    if (!a || a.omitted) continue;
-    const fromRange = a.isRangeRef || Array.isArray(a.value);
-    const items = Array.isArray(a.value) ? (a.value as unknown[][]).flat() : [a.value];
-    for (const v of items) {
-      if (v instanceof FormulaError) return { numbers, error: v, count };
-      if (v !== null && v !== undefined && v !== "") count++;
-      if (typeof v === "number") numbers.push(v);
-      else if (!fromRange && typeof v === "boolean") numbers.push(v ? 1 : 0);
-      else if (!fromRange && typeof v === "string" && v.trim() !== "" && Number.isFinite(Number(v))) numbers.push(Number(v));
-      else if (!fromRange && typeof v === "string") return { numbers, error: FormulaError.VALUE, count };
-    }
-  }
-  return { numbers, count };
-}
-
-/** MAX, MIN and COUNTA are not in fast-formula-parser 1.0.19; Excel's rules: ranges skip text and blanks. */
-export const EXTRA_NATIVE: Record<string, (...args: FunctionArg[]) => unknown> = {
-  MAX: (...args) => {
-    const f = flatten(args);
-    return f.error ?? (f.numbers.length ? Math.max(...f.numbers) : 0);
-  },
-  MIN: (...args) => {
-    const f = flatten(args);
-    return f.error ?? (f.numbers.length ? Math.min(...f.numbers) : 0);
-  },
-  COUNTA: (...args) => {
-    let n = 0;
-    for (const a of args) {
-      if (!a || a.omitted) continue;
-      const items = Array.isArray(a.value) ? (a.value as unknown[][]).flat() : [a.value];
-      for (const v of items) if (v !== null && v !== undefined && !(a.isRangeRef && v === "")) n++;
-    }
-    return n;
-  },
-};
-
 // ---------------------------------------------------------------- the engine
 
-export class Recalc {
+export class Recalc implements Book {
   private readonly sheets: SheetState[] = [];
   private readonly byName = new Map<string, SheetState>();
-  private readonly parsers: FormulaParser[] = [];
-  private readonly functions: Record<string, (...args: FunctionArg[]) => unknown> = {};
-  private readonly names = new Map<string, { sheet: string; area: Area }>();
+  private readonly functions: Map<string, FunctionImpl>;
+  private readonly matrixFns = new Set<string>();
+  /** "SHEET|NAME" for sheet scope, "|NAME" for workbook scope. */
+  private readonly names = new Map<string, { ast: Ast | CellError; host: Host; text: string }>();
+  private readonly tables: TableInfo[] = [];
   private readonly nodes: Node[] = [];
   private readonly cycles: string[][] = [];
   private readonly spillAreas: SpillArea[] = [];
+  private readonly evaluator: Evaluator;
+  private readonly astCache = new WeakMap<object, { text: string; ast: Ast | CellError }>();
+  private depth = 0;
+  private cellCount = 0;
 
   constructor(
-    book: InputBook,
+    book: InputBook | null,
     airtally: Map<string, AirtallyFunction>,
     private readonly options: RecalcOptions = {},
   ) {
-    Object.assign(this.functions, EXTRA_NATIVE);
+    this.functions = nativeFunctions();
     for (const f of airtally.values()) {
       const call = hostFunction(f);
-      this.functions[`${NAMESPACE}.${f.id}`] = call;
-      this.functions[`${STORED_PREFIX}${NAMESPACE}_${f.id}`.toUpperCase()] = call;
+      const names = [`${NAMESPACE}.${f.id}`, `${STORED_PREFIX}${NAMESPACE}_${f.id}`.toUpperCase()];
+      for (const n of names) {
+        this.functions.set(n, call);
+        if (f.matrix) this.matrixFns.add(n);
+      }
     }
-    for (const n of book.names ?? []) this.names.set(n.name.toUpperCase(), { sheet: n.sheet, area: n.area });
+    this.evaluator = new Evaluator(this, this.functions);
+    if (!book) return; // loaded cell by cell: addSheets, addCell, finishLoading
+    this.addSheets(book.sheets.map((s) => s.name));
     book.sheets.forEach((s, index) => {
-      const state: SheetState = { name: s.name, index, constants: new Map(), formulas: new Map(), owned: new Map(), spilled: new Map(), maxRow: 0, maxCol: 0 };
+      for (const c of s.cells) this.addCell(index, c);
+    });
+    this.finishLoading(book.names ?? [], book.tables ?? []);
+  }
+
+  /** The sheets, in workbook order (first step of loading cell by cell). */
+  addSheets(names: string[]): void {
+    for (const name of names) {
+      const state: SheetState = { name, index: this.sheets.length, constants: new Grid(), formulas: new Grid(), owned: new Grid(), spilled: new Grid(), formulaRows: new Map(), pendingSpills: [], maxRow: 0, maxCol: 0 };
       this.sheets.push(state);
-      this.byName.set(s.name.toUpperCase(), state);
-      for (const c of s.cells) {
-        state.maxRow = Math.max(state.maxRow, c.arrayRange?.bottom ?? c.row);
-        state.maxCol = Math.max(state.maxCol, c.arrayRange?.right ?? c.col);
-        const key = cellKey(c.row, c.col);
-        if (c.formula !== undefined && c.formula.trim() !== "") {
-          const formula = c.formula.trim().replace(/^=/, "");
-          const node: Node = {
-            key: `${s.name}!${address(c.row, c.col)}`,
-            sheet: state,
-            row: c.row,
-            col: c.col,
-            formula,
-            arrayRange: c.arrayRange,
-            state: "pending",
-            value: null,
-            deps: [],
-            mayArray: this.mayReturnArray(formula, airtally),
-          };
-          state.formulas.set(key, node);
-          this.nodes.push(node);
-        } else if (c.value !== undefined) {
-          state.constants.set(key, c.value);
+      this.byName.set(name.toUpperCase(), state);
+    }
+  }
+
+  /** One cell of sheet number `index` (a streaming reader hands cells over as it reads them). */
+  addCell(index: number, c: InputCell): void {
+    if (++this.cellCount > MAX_CELLS) throw new RefusedInput(`refused: the workbook has more than ${MAX_CELLS} non-empty cells (limit)`);
+    const state = this.sheets[index];
+    if (c.row > state.maxRow) state.maxRow = c.row;
+    if (c.col > state.maxCol) state.maxCol = c.col;
+    if (c.formula !== undefined && c.formula.trim() !== "") {
+      const formula = c.formula.trim().replace(/^=/, "");
+      const node: Node = { sheet: state, row: c.row, col: c.col, formula, ast: c.refused ? err("#REF!", c.refused) : this.parse(formula, c.formulaHost ?? c, c.formulaHost !== undefined), state: 0, value: null, deps: NO_DEPS, mayArray: false, index: -1, low: -1, onStack: false, stamp: -1 };
+      const a = c.arrayRange;
+      if (a) {
+        const cells = (a.bottom - a.top + 1) * (a.right - a.left + 1);
+        if (cells > MAX_ARRAY_CELLS) node.ast = err("#NUM!", `the array formula covers ${areaText(a)}, over the limit of ${MAX_ARRAY_CELLS} cells`);
+        else {
+          node.arrayRange = a;
+          state.maxRow = Math.max(state.maxRow, a.bottom);
+          state.maxCol = Math.max(state.maxCol, a.right);
         }
       }
-    });
+      state.formulas.set(c.row, c.col, node);
+      let rows = state.formulaRows.get(c.col);
+      if (!rows) state.formulaRows.set(c.col, (rows = []));
+      insertSorted(rows, c.row);
+      this.nodes.push(node);
+    } else if (c.value !== undefined && c.value !== null) {
+      state.constants.set(c.row, c.col, c.value);
+    }
+  }
+
+  /** Last step of loading: array formula ranges, names, tables. */
+  finishLoading(names: InputName[], tables: InputTable[]): void {
     // Cells inside a stored array formula's range are its output, not constants.
-    for (const s of this.sheets) {
-      for (const node of s.formulas.values()) {
-        const a = node.arrayRange;
-        if (!a) continue;
-        for (let r = a.top; r <= a.bottom; r++)
-          for (let c = a.left; c <= a.right; c++) {
-            const k = cellKey(r, c);
-            if (r === node.row && c === node.col) continue;
-            s.owned.set(k, node);
-            s.constants.delete(k);
-          }
+    for (const node of this.nodes) {
+      const a = node.arrayRange;
+      if (!a) continue;
+      const state = node.sheet;
+      for (let r = a.top; r <= a.bottom; r++)
+        for (let c = a.left; c <= a.right; c++) {
+          if (r === node.row && c === node.col) continue;
+          state.owned.set(r, c, node);
+          state.constants.delete(r, c);
+        }
+    }
+    for (const n of names) this.addName(n);
+    for (const t of tables) {
+      const sheet = this.byName.get(t.sheet.toUpperCase());
+      if (sheet) this.tables.push({ name: t.name, sheet, top: t.area.top, left: t.area.left, bottom: t.area.bottom, right: t.area.right, headerRows: t.headerRows, totalsRows: t.totalsRows, columns: t.columns });
+    }
+    for (const node of this.nodes) {
+      if (isCellError(node.ast)) continue;
+      try {
+        node.mayArray = mayArray(node.ast, this.matrixFns);
+      } catch (e) {
+        node.ast = thrownToError(e);
       }
     }
+    for (const s of this.sheets) s.pendingSpills = s.formulas.values().filter((n) => n.mayArray && !n.arrayRange);
   }
 
-  /** Formulas whose result may spill: a matrix AIRTALLY function, or any native array-capable one. */
-  private mayReturnArray(formula: string, airtally: Map<string, AirtallyFunction>): boolean {
-    const upper = formula.toUpperCase();
-    for (const f of airtally.values()) {
-      if (f.matrix && (upper.includes(`${NAMESPACE}.${f.id}(`) || upper.includes(`${STORED_PREFIX}${NAMESPACE}_${f.id}(`.toUpperCase()))) return true;
+  /** Parse once per shared formula: its cells carry the same `formulaHost` object and reuse the first cell's tree. */
+  private parse(text: string, host: { row: number; col: number }, shared: boolean): Ast | CellError {
+    const hit = shared ? this.astCache.get(host) : undefined;
+    if (hit && hit.text === text) return hit.ast;
+    let ast: Ast | CellError;
+    try {
+      ast = parseFormula(text, host);
+    } catch (e) {
+      ast = thrownToError(e);
     }
-    return /(^|[^A-Z0-9_.])(TRANSPOSE|MMULT|MUNIT|FREQUENCY)\(/.test(upper) || /^[$A-Z]+[$0-9]+:[$A-Z]+[$0-9]+$/.test(upper.replace(/^'?[^!]*'?!/, ""));
+    if (shared) this.astCache.set(host, { text, ast });
+    return ast;
   }
 
-  private sheetOf(name: string | undefined, fallback: SheetState): SheetState | undefined {
-    if (name === undefined || name === null) return fallback;
-    return this.byName.get(String(name).toUpperCase());
-  }
-
-  private parserAt(depth: number): FormulaParser {
-    let p = this.parsers[depth];
-    if (!p) {
-      p = new FormulaParser({
-        functions: this.functions,
-        onCell: (ref: CellRef) => this.readCell(ref, depth),
-        onRange: (ref: RangeRef) => this.readRange(ref, depth),
-        onVariable: (name: string) => this.variable(name),
-      });
-      this.parsers[depth] = p;
+  private addName(n: InputName): void {
+    const scopeSheet = n.scope ? this.byName.get(n.scope.toUpperCase()) : undefined;
+    if (n.scope && !scopeSheet) return;
+    let text = n.formula?.trim().replace(/^=/, "");
+    if (text === undefined && n.area && n.sheet) text = `'${n.sheet.replace(/'/g, "''")}'!${areaText(n.area).replace(/([A-Z]+)(\d+)/g, "$$$1$$$2")}`;
+    if (text === undefined) return;
+    let ast: Ast | CellError;
+    try {
+      ast = parseFormula(text, { row: 1, col: 1 });
+    } catch (e) {
+      ast = thrownToError(e);
     }
-    return p;
+    const host: Host = { sheet: scopeSheet ?? this.sheets[0], row: 1, col: 1 };
+    this.names.set(`${scopeSheet ? scopeSheet.name.toUpperCase() : ""}|${n.name.toUpperCase()}`, { ast, host, text });
   }
 
-  private variable(name: string): RangeRef | CellRef | null {
-    const n = this.names.get(name.toUpperCase());
-    if (!n) return null;
-    const a = n.area;
-    if (a.top === a.bottom && a.left === a.right) return { sheet: n.sheet, row: a.top, col: a.left };
-    return { sheet: n.sheet, from: { row: a.top, col: a.left }, to: { row: a.bottom, col: a.right } };
+  // ------------------------------------------------------------ Book (what the evaluator reads)
+
+  sheetNamed(name: string): unknown {
+    return this.byName.get(name.toUpperCase());
   }
 
-  private current: SheetState[] = [];
-
-  private readCell(ref: CellRef, depth: number): unknown {
-    const sheet = this.sheetOf(ref.sheet, this.current[depth]);
-    if (!sheet) return FormulaError.REF;
-    return toParser(this.valueAt(sheet, ref.row, ref.col, depth + 1));
+  sheetName(sheet: unknown): string {
+    return (sheet as SheetState).name;
   }
 
-  private readRange(ref: RangeRef, depth: number): unknown[][] {
-    const sheet = this.sheetOf(ref.sheet, this.current[depth]);
-    if (!sheet) return [[FormulaError.REF]];
-    // Whole columns/rows: only as far as anything on the sheet reaches.
-    const bottom = Math.min(ref.to.row, Math.max(sheet.maxRow, ref.from.row));
-    const right = Math.min(ref.to.col, Math.max(sheet.maxCol, ref.from.col));
-    const out: unknown[][] = [];
-    for (let r = ref.from.row; r <= bottom; r++) {
-      const row: unknown[] = [];
-      for (let c = ref.from.col; c <= right; c++) row.push(toParser(this.valueAt(sheet, r, c, depth + 1)));
-      out.push(row);
-    }
-    return out;
+  extent(sheet: unknown): { rows: number; cols: number } {
+    const s = sheet as SheetState;
+    return { rows: s.maxRow, cols: s.maxCol };
+  }
+
+  population(sheet: unknown): number {
+    const s = sheet as SheetState;
+    return s.constants.size + s.formulas.size + s.spilled.size;
+  }
+
+  populated(sheet: unknown, top: number, left: number, bottom: number, right: number): [number, number][] {
+    const s = sheet as SheetState;
+    for (const n of [...s.pendingSpills]) if (n.row <= bottom && n.col <= right) this.evaluate(n);
+    const keys: number[] = [];
+    const take = (r: number, c: number) => {
+      if (r >= top && r <= bottom && c >= left && c <= right) keys.push(cellKey(r, c));
+    };
+    s.constants.forEach(take);
+    s.formulas.forEach(take);
+    s.spilled.forEach(take);
+    s.owned.forEach((r, c) => (s.spilled.has(r, c) ? undefined : take(r, c)));
+    keys.sort((a, b) => a - b);
+    return keys.map((k) => [keyRow(k), keyCol(k)]);
+  }
+
+  name(name: string, fromSheet: unknown, scopeSheet?: string): { ast: Ast; host: Host } | undefined {
+    const upper = name.toUpperCase();
+    const def = scopeSheet !== undefined ? this.names.get(`${scopeSheet.toUpperCase()}|${upper}`) : this.names.get(`${(fromSheet as SheetState).name.toUpperCase()}|${upper}`) ?? this.names.get(`|${upper}`);
+    if (!def) return undefined;
+    if (isCellError(def.ast)) return { ast: { kind: "error", code: def.ast.error }, host: def.host };
+    return { ast: def.ast, host: def.host };
+  }
+
+  table(name: string | undefined, host: Host): TableInfo | undefined {
+    if (name !== undefined) return this.tables.find((t) => t.name.toUpperCase() === name.toUpperCase());
+    return this.tables.find((t) => t.sheet === host.sheet && host.row >= t.top && host.row <= t.bottom && host.col >= t.left && host.col <= t.right);
   }
 
   /** The value of any cell, evaluating what it needs first. */
-  private valueAt(sheet: SheetState, row: number, col: number, depth: number): Value {
-    const k = cellKey(row, col);
-    const node = sheet.formulas.get(k);
+  value(sheet: unknown, row: number, col: number): Value {
+    const s = sheet as SheetState;
+    const node = s.formulas.get(row, col);
     if (node) {
-      this.evaluate(node, depth);
+      if (node.state !== 2) this.evaluate(node);
       return node.value;
     }
-    const owner = sheet.owned.get(k);
-    if (owner) this.evaluate(owner, depth);
-    else if (!sheet.constants.has(k) && !sheet.spilled.has(k)) this.settleSpillsCovering(sheet, row, col, depth);
-    const spill = sheet.spilled.get(k);
-    if (spill) return spill.value;
-    return sheet.constants.get(k) ?? null;
+    const c = s.constants.get(row, col);
+    if (c !== undefined) return c;
+    const owner = s.owned.get(row, col);
+    if (owner && owner.state !== 2) this.evaluate(owner);
+    else if (s.pendingSpills.length && !owner) this.settleSpillsCovering(s, row, col);
+    const spill = s.spilled.get(row, col);
+    return spill ? spill.value : null;
   }
 
   /** An empty cell may be filled by a spill not evaluated yet: evaluate the formulas that could reach it. */
-  private settleSpillsCovering(sheet: SheetState, row: number, col: number, depth: number): void {
-    for (const n of sheet.formulas.values()) {
-      if (n.state === "pending" && n.mayArray && !n.arrayRange && n.row <= row && n.col <= col) this.evaluate(n, depth);
-    }
+  private settleSpillsCovering(sheet: SheetState, row: number, col: number): void {
+    for (const n of [...sheet.pendingSpills]) if (n.state === 0 && n.row <= row && n.col <= col) this.evaluate(n);
   }
 
-  private evaluate(node: Node, depth: number): void {
-    if (node.state === "done") return;
-    if (node.state === "busy") {
+  private evaluate(node: Node): void {
+    if (node.state === 2) return;
+    if (node.state === 1) {
       // Read while being computed: a circular reference the graph could not see (through a spill).
-      node.value = { error: CYCLE, message: `circular reference through ${node.key}` };
+      node.value = { error: CYCLE, message: `circular reference through ${nodeKey(node)}` };
       return;
     }
-    if (depth > MAX_ON_DEMAND_DEPTH) {
-      node.value = { error: "#VALUE!", message: "dependency chain too deep to evaluate on demand" };
-      node.state = "done";
+    if (this.depth > MAX_ON_DEMAND_DEPTH) {
+      node.value = VALUE("dependency chain too deep to evaluate on demand");
+      node.state = 2;
       return;
     }
-    node.state = "busy";
-    let result: Value | Value[][];
+    node.state = 1;
+    this.depth++;
+    let result: Value | Matrix;
     try {
-      this.current[depth] = node.sheet;
-      const direct = this.directReference(node, depth);
-      if (direct !== undefined) result = direct;
-      else result = fromParser(this.parserAt(depth).parse(node.formula, { sheet: node.sheet.name, row: node.row, col: node.col }, true));
+      if (isCellError(node.ast)) result = node.ast;
+      else {
+        const v: EvalValue = this.evaluator.eval(node.ast, { sheet: node.sheet, row: node.row, col: node.col }, undefined);
+        result = isRef(v) ? this.evaluator.arrayOrValue(v) : v;
+      }
     } catch (e) {
       result = thrownToError(e);
     }
-    if (node.state === "busy" && isCellError(node.value) && node.value.error === CYCLE) result = node.value;
-    node.state = "done";
+    this.depth--;
+    if (isCellError(node.value) && node.value.error === CYCLE) result = node.value;
+    node.state = 2;
+    if (node.mayArray) {
+      const i = node.sheet.pendingSpills.indexOf(node);
+      if (i >= 0) node.sheet.pendingSpills.splice(i, 1);
+    }
     this.place(node, result);
   }
 
-  /**
-   * `=A1` / `=Sheet!A1`: read directly. fast-formula-parser 1.0.19 turns an error value reached through a bare
-   * reference into a plain #VALUE!, losing the code and message; Excel shows the referenced error.
-   */
-  private directReference(node: Node, depth: number): Value | undefined {
-    const m = /^(?:(?:'((?:[^']|'')+)'|([A-Za-z0-9_.]+))!)?\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(node.formula.trim());
-    if (!m) return undefined;
-    const sheetName = m[1] !== undefined ? m[1].replace(/''/g, "'") : m[2];
-    const sheet = sheetName === undefined ? node.sheet : this.byName.get(sheetName.toUpperCase());
-    if (!sheet) return { error: "#REF!", message: `no sheet named ${sheetName}` };
-    let col = 0;
-    for (const ch of m[3].toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
-    const v = this.valueAt(sheet, Number(m[4]), col, depth + 1);
-    return v === null ? 0 : v;
-  }
-
   /** Put a formula's result in its cell, and spill an array. */
-  private place(node: Node, result: Value | Value[][]): void {
-    if (!Array.isArray(result)) {
+  private place(node: Node, raw: Value | Matrix): void {
+    const result: Value | Matrix = isMatrix(raw) ? raw : raw === null ? 0 : raw; // a blank read by a formula shows 0
+    if (!isMatrix(result)) {
       node.value = result;
       if (node.arrayRange) this.fillStored(node, [[result]]);
       return;
     }
+    const clean = result.map((row) => row.map((v) => (v === null ? 0 : v)));
     if (node.arrayRange) {
-      this.fillStored(node, result);
+      this.fillStored(node, clean);
       return;
     }
-    const h = result.length;
-    const w = result[0].length;
+    const h = clean.length;
+    const w = clean[0].length;
     if (h === 1 && w === 1) {
-      node.value = result[0][0];
+      node.value = clean[0][0];
       return;
     }
     const s = node.sheet;
     const area: Area = { top: node.row, left: node.col, bottom: node.row + h - 1, right: node.col + w - 1 };
+    if (area.bottom > 1048576 || area.right > MAX_COL) {
+      node.value = { error: SPILL, message: `the result needs ${h}×${w} cells and runs off the sheet` };
+      return;
+    }
     for (let r = area.top; r <= area.bottom; r++)
       for (let c = area.left; c <= area.right; c++) {
         if (r === node.row && c === node.col) continue;
-        const k = cellKey(r, c);
-        const other = s.spilled.get(k);
-        if (s.formulas.has(k) || !isBlank(s.constants.get(k)) || s.owned.has(k) || (other && other.anchor !== node)) {
+        const other = s.spilled.get(r, c);
+        if (s.formulas.has(r, c) || s.constants.has(r, c) || s.owned.has(r, c) || (other && other.anchor !== node)) {
           node.value = { error: SPILL, message: `the result needs ${h}×${w} cells (${areaText(area)}) but ${address(r, c)} is not empty` };
           return;
         }
       }
-    node.value = result[0][0];
-    node.array = result;
+    node.value = clean[0][0];
     for (let i = 0; i < h; i++)
       for (let j = 0; j < w; j++) {
         if (i === 0 && j === 0) continue;
-        s.spilled.set(cellKey(node.row + i, node.col + j), { value: result[i][j], anchor: node });
+        s.spilled.set(node.row + i, node.col + j, { value: clean[i][j], anchor: node });
       }
     s.maxRow = Math.max(s.maxRow, area.bottom);
     s.maxCol = Math.max(s.maxCol, area.right);
@@ -561,98 +631,163 @@ export class Recalc {
       return v === undefined ? { error: "#N/A", message: `the result has ${w} columns; the array formula covers ${a.right - a.left + 1}` } : v;
     };
     node.value = at(node.row - a.top, node.col - a.left);
-    node.array = result;
     for (let r = a.top; r <= a.bottom; r++)
       for (let c = a.left; c <= a.right; c++) {
         if (r === node.row && c === node.col) continue;
-        node.sheet.spilled.set(cellKey(r, c), { value: at(r - a.top, c - a.left), anchor: node });
+        node.sheet.spilled.set(r, c, { value: at(r - a.top, c - a.left), anchor: node });
       }
     this.spillAreas.push({ sheet: node.sheet.name, anchor: { row: node.row, col: node.col }, area: a, stored: true });
   }
 
   // ------------------------------------------------------------ dependency graph
 
-  private buildGraph(): void {
-    const dep = new DepParser({ onVariable: (name: string) => this.variable(name) });
-    for (const node of this.nodes) {
-      let refs: (CellRef | RangeRef)[] = [];
-      try {
-        refs = dep.parse(node.formula, { sheet: node.sheet.name, row: node.row, col: node.col });
-      } catch {
-        refs = []; // the evaluation reports the parse error in the cell
+  /** Every cell and range a formula tree reads (names and table columns resolved). */
+  private references(ast: Ast, host: Host, out: { sheet: SheetState; top: number; left: number; bottom: number; right: number }[], seenNames: Set<string> | undefined): void {
+    const sheetOf = (name: string | undefined) => (name === undefined ? (host.sheet as SheetState) : this.byName.get(name.toUpperCase()));
+    const at = (c: { row: number; col: number; rowAbs: boolean; colAbs: boolean }) => ({ row: c.rowAbs ? c.row : c.row + host.row, col: c.colAbs ? c.col : c.col + host.col });
+    switch (ast.kind) {
+      case "cell": {
+        const s = sheetOf(ast.sheet);
+        const p = at(ast.at);
+        if (s) out.push({ sheet: s, top: p.row, left: p.col, bottom: p.row, right: p.col });
+        return;
       }
-      const seen = new Set<Node>();
+      case "area": {
+        const s = sheetOf(ast.sheet);
+        const a = at(ast.from);
+        const b = at(ast.to);
+        if (s) out.push({ sheet: s, top: Math.min(a.row, b.row), left: Math.min(a.col, b.col), bottom: Math.max(a.row, b.row), right: Math.max(a.col, b.col) });
+        return;
+      }
+      case "name": {
+        const def = this.name(ast.name, host.sheet, ast.sheet);
+        const key = `${ast.sheet ?? ""}|${ast.name.toUpperCase()}`;
+        seenNames ??= new Set();
+        if (def && !seenNames.has(key) && seenNames.size < 64) {
+          seenNames.add(key);
+          this.references(def.ast, def.host, out, seenNames);
+        } else if (!def && ast.sheet === undefined) this.references({ kind: "table", table: ast.name, items: [], columns: [] }, host, out, seenNames);
+        return;
+      }
+      case "table": {
+        const r = this.evaluator.eval(ast, host, undefined); // the exact rows and columns it names ([#This Row] included)
+        if (isRef(r)) out.push({ sheet: r.sheet as SheetState, top: r.top, left: r.left, bottom: r.bottom, right: r.right });
+        return;
+      }
+      case "unary":
+        this.references(ast.arg, host, out, seenNames);
+        return;
+      case "binary":
+        this.references(ast.left, host, out, seenNames);
+        this.references(ast.right, host, out, seenNames);
+        return;
+      case "chain":
+        this.references(ast.first, host, out, seenNames);
+        for (const a of ast.rest) this.references(a, host, out, seenNames);
+        return;
+      case "call":
+        for (const a of ast.args) this.references(a, host, out, seenNames);
+        return;
+      case "array":
+        return;
+      default:
+        return;
+    }
+  }
+
+  private buildGraph(): void {
+    const arrayNodes = this.nodes.filter((n) => n.arrayRange);
+    const refs: { sheet: SheetState; top: number; left: number; bottom: number; right: number }[] = [];
+    let stamp = 0;
+    for (const node of this.nodes) {
+      if (isCellError(node.ast)) continue;
+      refs.length = 0;
+      try {
+        this.references(node.ast, { sheet: node.sheet, row: node.row, col: node.col }, refs, undefined);
+      } catch (e) {
+        node.ast = thrownToError(e); // a tree too deep to walk is an error cell, never a crash
+        continue;
+      }
+      const mark = stamp++;
       const add = (n: Node | undefined) => {
-        if (n && !seen.has(n)) {
-          seen.add(n);
+        if (n && n.stamp !== mark) {
+          n.stamp = mark;
+          if (node.deps === NO_DEPS) node.deps = [];
           node.deps.push(n);
         }
       };
       for (const ref of refs) {
-        const sheet = this.sheetOf(ref.sheet, node.sheet);
-        if (!sheet) continue;
-        if ("from" in ref) {
-          const top = ref.from.row, bottom = ref.to.row, left = ref.from.col, right = ref.to.col;
-          for (const n of sheet.formulas.values()) {
-            if (n.row >= top && n.row <= bottom && n.col >= left && n.col <= right) add(n);
-            else if (n.arrayRange && n.arrayRange.top <= bottom && n.arrayRange.bottom >= top && n.arrayRange.left <= right && n.arrayRange.right >= left) add(n);
+        const s = ref.sheet;
+        if (ref.top === ref.bottom && ref.left === ref.right) {
+          add(s.formulas.get(ref.top, ref.left) ?? s.owned.get(ref.top, ref.left));
+          continue;
+        }
+        const width = ref.right - ref.left + 1;
+        const visitColumn = (col: number, rows: number[]) => {
+          for (let i = lowerBound(rows, ref.top); i < rows.length && rows[i] <= ref.bottom; i++) add(s.formulas.get(rows[i], col));
+        };
+        if (width <= s.formulaRows.size) {
+          for (let col = ref.left; col <= ref.right; col++) {
+            const rows = s.formulaRows.get(col);
+            if (rows) visitColumn(col, rows);
           }
-        } else {
-          const k = cellKey(ref.row, ref.col);
-          add(sheet.formulas.get(k) ?? sheet.owned.get(k));
+        } else for (const [col, rows] of s.formulaRows) if (col >= ref.left && col <= ref.right) visitColumn(col, rows);
+        for (const n of arrayNodes) {
+          const a = n.arrayRange!;
+          if (n.sheet === s && a.top <= ref.bottom && a.bottom >= ref.top && a.left <= ref.right && a.right >= ref.left) add(n);
         }
       }
     }
   }
 
-  /** Tarjan's strongly connected components, iterative; returns components dependencies first. */
-  private components(): Node[][] {
-    const index = new Map<Node, number>();
-    const low = new Map<Node, number>();
-    const onStack = new Set<Node>();
+  /**
+   * Tarjan's strongly connected components, iterative, with the bookkeeping
+   * on the nodes themselves (a million formulas need no maps). Returns every
+   * node dependencies first, and the components that are circular.
+   */
+  private components(): { order: Node[]; cyclic: Node[][] } {
     const stack: Node[] = [];
-    const out: Node[][] = [];
+    const order: Node[] = [];
+    const cyclic: Node[][] = [];
     let next = 0;
+    const work: { node: Node; i: number }[] = [];
+    const visit = (n: Node) => {
+      n.index = n.low = next++;
+      n.onStack = true;
+      stack.push(n);
+      work.push({ node: n, i: 0 });
+    };
     for (const root of this.nodes) {
-      if (index.has(root)) continue;
-      const work: { node: Node; i: number }[] = [{ node: root, i: 0 }];
-      index.set(root, next);
-      low.set(root, next++);
-      stack.push(root);
-      onStack.add(root);
+      if (root.index >= 0) continue;
+      visit(root);
       while (work.length) {
         const top = work[work.length - 1];
-        if (top.i < top.node.deps.length) {
-          const d = top.node.deps[top.i++];
-          if (!index.has(d)) {
-            index.set(d, next);
-            low.set(d, next++);
-            stack.push(d);
-            onStack.add(d);
-            work.push({ node: d, i: 0 });
-          } else if (onStack.has(d)) {
-            low.set(top.node, Math.min(low.get(top.node)!, index.get(d)!));
-          }
+        const node = top.node;
+        if (top.i < node.deps.length) {
+          const d = node.deps[top.i++];
+          if (d.index < 0) visit(d);
+          else if (d.onStack && d.index < node.low) node.low = d.index;
           continue;
         }
         work.pop();
         if (work.length) {
           const parent = work[work.length - 1].node;
-          low.set(parent, Math.min(low.get(parent)!, low.get(top.node)!));
+          if (node.low < parent.low) parent.low = node.low;
         }
-        if (low.get(top.node) === index.get(top.node)) {
-          const comp: Node[] = [];
+        if (node.low === node.index) {
+          const start = order.length;
           let n: Node;
           do {
             n = stack.pop()!;
-            onStack.delete(n);
-            comp.push(n);
-          } while (n !== top.node);
-          out.push(comp);
+            n.onStack = false;
+            order.push(n);
+          } while (n !== node);
+          const size = order.length - start;
+          if (size > 1 || node.deps.includes(node)) cyclic.push(order.slice(start));
         }
       }
     }
-    return out;
+    return { order, cyclic };
   }
 
   /** Follow dependencies inside one component from `start` back to it: the cycle's path for the message. */
@@ -684,62 +819,89 @@ export class Recalc {
 
   run(): RecalcResult {
     this.buildGraph();
-    const order = this.components();
-    for (const comp of order) {
-      const selfLoop = comp.length === 1 && comp[0].deps.includes(comp[0]);
-      if (comp.length === 1 && !selfLoop) continue;
+    const { order, cyclic } = this.components();
+    for (const comp of cyclic) {
       const members = new Set(comp);
       const sorted = [...comp].sort((a, b) => a.sheet.index - b.sheet.index || a.row - b.row || a.col - b.col);
       const path = this.cyclePath(sorted[0], members);
-      const text = [...path, path[0]].map((n) => n.key).join(" → ");
-      this.cycles.push(sorted.map((n) => n.key));
+      const text = [...path, path[0]].map(nodeKey).join(" → ");
+      this.cycles.push(sorted.map(nodeKey));
       for (const n of comp) {
-        n.state = "done";
+        n.state = 2;
         n.value = { error: CYCLE, message: `circular reference: ${text}` };
       }
     }
-    const total = this.nodes.length;
+    const total = order.length;
     const every = this.options.progressEvery ?? 1000;
     let done = 0;
-    for (const comp of order) {
-      for (const n of comp) {
-        this.evaluate(n, 0);
-        done++;
-        if (this.options.onProgress && done % every === 0) this.options.onProgress(done, total);
-      }
+    for (const n of order) {
+      this.evaluate(n);
+      n.deps = NO_DEPS; // not needed once evaluated
+      done++;
+      if (this.options.onProgress && done % every === 0) this.options.onProgress(done, total);
     }
     if (this.options.onProgress && total >= every) this.options.onProgress(total, total);
-    return this.collect();
+    // A cycle found only while evaluating (through a spill) is reported like the others.
+    for (const n of this.nodes) if (isCellError(n.value) && n.value.error === CYCLE && n.value.message?.startsWith("circular reference through") && !this.cycles.some((c) => c.includes(nodeKey(n)))) this.cycles.push([nodeKey(n)]);
+    return this.result();
   }
 
-  private collect(): RecalcResult {
-    const sheets: RecalcResult["sheets"] = [];
+  /** The cell at a position as the result reports it (undefined: empty). */
+  private cellAt(s: SheetState, row: number, col: number): CellResult | undefined {
+    const base = { sheet: s.name, row, col, address: address(row, col) };
+    const n = s.formulas.get(row, col);
+    if (n) return { ...base, kind: "formula", formula: n.formula, value: n.value };
+    const sp = s.spilled.get(row, col);
+    if (sp) return { ...base, kind: "spill", value: sp.value, anchor: nodeKey(sp.anchor) };
+    const v = s.constants.get(row, col);
+    return v === undefined ? undefined : { ...base, kind: "constant", value: v };
+  }
+
+  /** Every non-empty cell of a sheet in row-major order, without building them all at once. */
+  private *cellsOf(s: SheetState): Generator<CellResult> {
+    const keys = new Float64Array(s.constants.size + s.formulas.size + s.spilled.size);
+    let i = 0;
+    s.formulas.forEach((r, c) => (keys[i++] = cellKey(r, c)));
+    s.spilled.forEach((r, c) => (keys[i++] = cellKey(r, c)));
+    s.constants.forEach((r, c) => (s.spilled.has(r, c) || s.formulas.has(r, c) ? undefined : (keys[i++] = cellKey(r, c))));
+    const sorted = keys.subarray(0, i).sort();
+    for (const k of sorted) yield this.cellAt(s, keyRow(k), keyCol(k))!;
+  }
+
+  private result(): RecalcResult {
     const errors: CellResult[] = [];
-    for (const s of this.sheets) {
-      const cells: CellResult[] = [];
-      const base = (row: number, col: number) => ({ sheet: s.name, row, col, address: address(row, col) });
-      for (const [k, v] of s.constants) {
-        const [row, col] = k.split(",").map(Number);
-        if (!s.spilled.has(k)) cells.push({ ...base(row, col), kind: "constant", value: v });
-      }
-      for (const n of s.formulas.values()) {
-        const c: CellResult = { ...base(n.row, n.col), kind: "formula", formula: n.formula, value: n.value };
-        cells.push(c);
-        if (isCellError(n.value)) errors.push(c);
-      }
-      for (const [k, sp] of s.spilled) {
-        const [row, col] = k.split(",").map(Number);
-        const c: CellResult = { ...base(row, col), kind: "spill", value: sp.value, anchor: sp.anchor.key };
-        cells.push(c);
-        if (isCellError(sp.value) && !isCellError(sp.anchor.value)) errors.push(c);
-      }
-      cells.sort((a, b) => a.row - b.row || a.col - b.col);
-      sheets.push({ name: s.name, cells });
-    }
+    for (const n of this.nodes) if (isCellError(n.value)) errors.push(this.cellAt(n.sheet, n.row, n.col)!);
+    for (const s of this.sheets)
+      s.spilled.forEach((r, c, sp) => (isCellError(sp.value) && !isCellError(sp.anchor.value) ? errors.push(this.cellAt(s, r, c)!) : undefined));
+    errors.sort((a, b) => this.byName.get(a.sheet.toUpperCase())!.index - this.byName.get(b.sheet.toUpperCase())!.index || a.row - b.row || a.col - b.col);
+    const engine = this;
+    const sheets: ResultSheet[] = this.sheets.map((s) => {
+      let cached: CellResult[] | undefined;
+      return {
+        name: s.name,
+        get cells() {
+          return (cached ??= [...engine.cellsOf(s)]);
+        },
+        each: () => this.cellsOf(s),
+        at: (row: number, col: number) => this.cellAt(s, row, col),
+        peek: (row: number, col: number) => {
+          const n = s.formulas.get(row, col);
+          if (n) return { kind: "formula" as const, value: n.value };
+          const sp = s.spilled.get(row, col);
+          if (sp) return { kind: "spill" as const, value: sp.value };
+          const v = s.constants.get(row, col);
+          return v === undefined ? undefined : { kind: "constant" as const, value: v };
+        },
+        spilledCells: () => {
+          const out: [number, number][] = [];
+          s.spilled.forEach((r, c) => out.push([r, c]));
+          return out;
+        },
+      };
+    });
     return { sheets, errors, cycles: this.cycles, spills: this.spillAreas, formulaCount: this.nodes.length };
   }
 }
-
 /** Recalculate a workbook model. Never throws for a bad cell: errors are cell values. */
 export function recalc(book: InputBook, airtally: Map<string, AirtallyFunction>, options?: RecalcOptions): RecalcResult {
   return new Recalc(book, airtally, options).run();

@@ -12,9 +12,11 @@ import * as fs from "fs";
 import * as path from "path";
 import { DEFAULT_DIST, loadAirtally, type AirtallyFunction } from "./bundle";
 import { CLI_CAUTION, speaksOfPower } from "./caution";
-import { evaluateFormula, isCellError, recalc, type Value } from "./engine";
-import { errorList, formatValue, sheetTable } from "./table";
-import { readBook, writeResults } from "./xlsx";
+import { evaluateFormula, isCellError, Recalc, type Value } from "./engine";
+import { errorList, formatValue, printable, printSheet } from "./table";
+import { loadPackage, type LoadedBook } from "./xlsxRead";
+import { sameFile, writePackage } from "./xlsxWrite";
+import { RefusedInput, ZIP_LIMITS } from "./zip";
 
 export const EXIT = { ok: 0, cellErrors: 1, usage: 2, cycle: 3 } as const;
 
@@ -38,8 +40,14 @@ both forms are read.
 Exit codes:
   0  every formula has a value
   1  some cells are errors (#VALUE!, #N/A, #SPILL!, ...; listed with messages)
-  2  usage error, unreadable file, or the add-in is not built
+  2  usage error, unreadable or refused file (limits below), --out not writable
+     or the input itself, or the add-in is not built
   3  the workbook has a circular reference (#CYCLE!, listed per cell)
+
+Limits (a workbook past one is refused with exit code 2, naming the part):
+  a part inflating past ${ZIP_LIMITS.maxPartBytes / 1048576} MiB, all parts past ${ZIP_LIMITS.maxTotalBytes / 1048576} MiB,
+  a compression ratio over ${ZIP_LIMITS.maxRatio}:1 (parts over ${ZIP_LIMITS.ratioFloorBytes / 1048576} MiB), more than ${ZIP_LIMITS.maxEntries} parts,
+  any DOCTYPE. Formulas reading other workbooks are #REF! cells.
 
 ${CLI_CAUTION}
 `;
@@ -47,6 +55,8 @@ ${CLI_CAUTION}
 export interface Io {
   out: (text: string) => void;
   err: (text: string) => void;
+  /** Whether err is a terminal (progress lines only then); default: process.stderr.isTTY. */
+  isTTY?: boolean;
 }
 
 const defaultIo: Io = { out: (t) => process.stdout.write(t), err: (t) => process.stderr.write(t) };
@@ -57,7 +67,7 @@ function distDir(): string {
 
 function formatResult(v: Value | Value[][]): string {
   if (Array.isArray(v)) return v.map((row) => row.map(formatValue).join("\t")).join("\n");
-  if (isCellError(v)) return `${v.error}${v.message ? ` ${v.message}` : ""}`;
+  if (isCellError(v)) return `${v.error}${v.message ? ` ${printable(v.message)}` : ""}`;
   return formatValue(v);
 }
 
@@ -70,7 +80,7 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
     const a = args[i];
     if (a === "--out" || a === "--sheet") {
       const v = args[++i];
-      if (!v) return usage(io, `${a} needs a value`);
+      if (!v || v.startsWith("--")) return usage(io, `${a} needs a value`);
       if (a === "--out") outFile = v;
       else only.push(v);
     } else if (a === "--quiet") quiet = true;
@@ -80,44 +90,57 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
   }
   if (!file) return usage(io, "recalc needs a workbook (.xlsx)");
   if (!fs.existsSync(file)) {
-    io.err(`airtally: no such file: ${file}\n`);
+    io.err(`airtally: no such file: ${printable(file)}\n`);
     return EXIT.usage;
   }
-  let loaded;
-  try {
-    loaded = await readBook(file);
-  } catch (e) {
-    io.err(`airtally: cannot read ${file} as an .xlsx workbook: ${e instanceof Error ? e.message : String(e)}\n`);
+  if (outFile && sameFile(file, outFile)) {
+    io.err(`airtally: --out ${printable(outFile)} is the input workbook; choose another file (the input is never overwritten)\n`);
     return EXIT.usage;
   }
-  const missing = only.filter((n) => !loaded.book.sheets.some((s) => s.name.toUpperCase() === n.toUpperCase()));
-  if (missing.length) return usage(io, `no sheet named ${missing.join(", ")} (sheets: ${loaded.book.sheets.map((s) => s.name).join(", ")})`);
-  const result = recalc(loaded.book, functions, {
-    progressEvery: 1000,
-    onProgress: (done, total) => io.err(`airtally: ${done}/${total} formulas\n`),
+  const onTerminal = io.isTTY ?? (io === defaultIo && !!process.stderr.isTTY);
+  const engine = new Recalc(null, functions, {
+    progressEvery: 10000,
+    onProgress: onTerminal ? (done, total) => io.err(`\rairtally: ${done}/${total} formulas`) : undefined,
   });
-  if (!quiet) {
-    for (const s of result.sheets) {
-      if (only.length && !only.some((n) => n.toUpperCase() === s.name.toUpperCase())) continue;
-      io.out(sheetTable(s.name, s.cells) + "\n");
-    }
+  let loaded: LoadedBook;
+  try {
+    loaded = await loadPackage(file, { sheets: (names) => engine.addSheets(names), cell: (i, c) => engine.addCell(i, c) });
+  } catch (e) {
+    const why = e instanceof Error ? e.message : String(e);
+    io.err(e instanceof RefusedInput ? `airtally: ${printable(file)}: ${printable(why)}\n` : `airtally: cannot read ${printable(file)} as an .xlsx workbook: ${printable(why)}\n`);
+    return EXIT.usage;
   }
-  const errors = errorList(result);
-  io.out(`${result.formulaCount} formulas, ${result.errors.length} error cells, ${result.cycles.length} circular references\n`);
-  if (errors) io.out(errors + "\n");
-  io.out(CLI_CAUTION + "\n");
-  if (outFile) {
-    try {
-      writeResults(loaded.workbook, result);
-      await loaded.workbook.xlsx.writeFile(outFile);
-      io.err(`airtally: wrote ${outFile}\n`);
-    } catch (e) {
-      io.err(`airtally: cannot write ${outFile}: ${e instanceof Error ? e.message : String(e)}\n`);
-      return EXIT.usage;
+  try {
+    const missing = only.filter((n) => !loaded.book.sheets.some((s) => s.name.toUpperCase() === n.toUpperCase()));
+    if (missing.length) return usage(io, `no sheet named ${missing.map(printable).join(", ")} (sheets: ${loaded.book.sheets.map((s) => printable(s.name)).join(", ")})`);
+    engine.finishLoading(loaded.book.names ?? [], loaded.book.tables ?? []);
+    const result = engine.run();
+    if (onTerminal && result.formulaCount >= 10000) io.err("\n");
+    if (!quiet) {
+      for (const s of result.sheets) {
+        if (only.length && !only.some((n) => n.toUpperCase() === s.name.toUpperCase())) continue;
+        printSheet(s.name, () => s.each(), io.out);
+        io.out("\n");
+      }
     }
+    const errors = errorList(result);
+    io.out(`${result.formulaCount} formulas, ${result.errors.length} error cells, ${result.cycles.length} circular references\n`);
+    if (errors) io.out(errors + "\n");
+    io.out(CLI_CAUTION + "\n");
+    if (outFile) {
+      try {
+        await writePackage(loaded, result, outFile);
+        io.err(`airtally: wrote ${printable(outFile)}\n`);
+      } catch (e) {
+        io.err(`airtally: cannot write ${printable(outFile)} (nothing written): ${printable(e instanceof Error ? e.message : String(e))}\n`);
+        return EXIT.usage;
+      }
+    }
+    if (result.cycles.length) return EXIT.cycle;
+    return result.errors.length ? EXIT.cellErrors : EXIT.ok;
+  } finally {
+    loaded.pkg.close();
   }
-  if (result.cycles.length) return EXIT.cycle;
-  return result.errors.length ? EXIT.cellErrors : EXIT.ok;
 }
 
 function usage(io: Io, message: string): number {
@@ -143,6 +166,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
     }
     if (command === "recalc") return await runRecalc(rest, io, functions);
     if (rest.length !== 1) return usage(io, "eval takes one formula (quote it for the shell)");
+    if (rest[0].trim().replace(/^=/, "").trim() === "") return usage(io, "eval needs a formula after =");
     const value = evaluateFormula(rest[0], functions);
     io.out(formatResult(value) + "\n");
     if (speaksOfPower(rest[0])) io.out(CLI_CAUTION + "\n");

@@ -4,6 +4,11 @@ import { isCellError, type CellResult, type RecalcResult, type Value } from "./e
 
 const MAX_WIDTH = 34;
 
+/** Text safe for a terminal: control characters shown as \xNN escapes, never sent raw. */
+export function printable(text: string): string {
+  return text.replace(/[\u0000-\u0008\u000B-\u001F\u007F-\u009F]/g, (c) => `\\x${c.charCodeAt(0).toString(16).padStart(2, "0")}`);
+}
+
 /** A value as the table shows it: numbers to 6 significant digits, errors by code. */
 export function formatValue(v: Value): string {
   if (v === null) return "";
@@ -14,29 +19,66 @@ export function formatValue(v: Value): string {
     return a !== 0 && (a < 1e-4 || a >= 1e9) ? v.toExponential(4) : String(Number(v.toPrecision(6)));
   }
   if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
-  return v;
+  return printable(v);
 }
 
 function clip(text: string): string {
   return text.length > MAX_WIDTH ? `${text.slice(0, MAX_WIDTH - 1)}…` : text;
 }
 
-/** One sheet as a grid with column letters and row numbers. */
-export function sheetTable(name: string, cells: CellResult[]): string {
-  if (cells.length === 0) return `== ${name} == (empty)\n`;
-  const rows = Math.max(...cells.map((c) => c.row));
-  const cols = Math.max(...cells.map((c) => c.col));
-  const grid: string[][] = Array.from({ length: rows + 1 }, () => Array<string>(cols + 1).fill(""));
-  for (let c = 1; c <= cols; c++) grid[0][c] = columnLetters(c);
-  for (let r = 1; r <= rows; r++) grid[r][0] = String(r);
-  for (const c of cells) grid[c.row][c.col] = clip(formatValue(c.value));
-  const used = grid.filter((row, i) => i === 0 || row.slice(1).some((x) => x !== ""));
-  const widths = grid[0].map((_, j) => Math.max(...used.map((row) => row[j].length)));
+/**
+ * One sheet as a grid of its used rows and columns, with column letters and
+ * row numbers, written line by line: a first pass over the cells measures
+ * the columns, a second writes the rows (a million-row sheet is never held
+ * as text).
+ */
+export function printSheet(name: string, each: () => Iterable<CellResult>, write: (text: string) => void): void {
+  const widths = new Map<number, number>();
+  let rowWidth = 0;
+  let any = false;
+  for (const c of each()) {
+    any = true;
+    const w = clip(formatValue(c.value)).length;
+    widths.set(c.col, Math.max(widths.get(c.col) ?? columnLetters(c.col).length, w));
+    rowWidth = Math.max(rowWidth, String(c.row).length);
+  }
+  if (!any) {
+    write(`== ${printable(name)} == (empty)\n`);
+    return;
+  }
+  const cols = [...widths.keys()].sort((a, b) => a - b);
+  const at = new Map(cols.map((c, i) => [c, i]));
   const numeric = (s: string) => /^-?[\d.]+(e[-+]\d+)?$/.test(s);
-  const line = (row: string[]) => row.map((s, j) => (j > 0 && numeric(s) ? s.padStart(widths[j]) : s.padEnd(widths[j]))).join(" | ").trimEnd();
-  const out = [`== ${name} ==`, line(used[0]), widths.map((w) => "-".repeat(w)).join("-+-")];
-  for (const row of used.slice(1)) out.push(line(row));
-  return out.join("\n") + "\n";
+  const line = (label: string, cells: string[]) =>
+    [label.padEnd(rowWidth), ...cells.map((s, j) => (numeric(s) ? s.padStart(widths.get(cols[j])!) : s.padEnd(widths.get(cols[j])!)))].join(" | ").trimEnd();
+  write(`== ${printable(name)} ==\n${line("", cols.map(columnLetters))}\n${[rowWidth, ...cols.map((c) => widths.get(c)!)].map((w) => "-".repeat(w)).join("-+-")}\n`);
+  let row = -1;
+  let cells: string[] = [];
+  let batch = "";
+  const flush = () => {
+    if (row >= 0) batch += line(String(row), cells) + "\n";
+    if (batch.length > 1 << 16) {
+      write(batch);
+      batch = "";
+    }
+  };
+  for (const c of each()) {
+    if (c.row !== row) {
+      flush();
+      row = c.row;
+      cells = cols.map(() => "");
+    }
+    cells[at.get(c.col)!] = clip(formatValue(c.value));
+  }
+  flush();
+  write(batch);
+}
+
+/** One sheet as a grid (the whole text; for small sheets and tests). */
+export function sheetTable(name: string, cells: CellResult[]): string {
+  let out = "";
+  printSheet(name, () => cells, (t) => (out += t));
+  return out;
 }
 
 /** Every error cell with its message, and every circular reference. */
@@ -44,7 +86,13 @@ export function errorList(result: RecalcResult): string {
   const lines: string[] = [];
   for (const e of result.errors) {
     const v = e.value as { error: string; message?: string };
-    lines.push(`${e.sheet}!${e.address}: ${v.error}${v.message ? ` ${v.message}` : ""}`);
+    lines.push(`${printable(e.sheet)}!${e.address}: ${v.error}${v.message ? ` ${printable(capped(v.message))}` : ""}`);
   }
   return lines.join("\n");
+}
+
+/** Messages are capped so a huge cell cannot flood the terminal. */
+const MAX_MESSAGE = 300;
+function capped(m: string): string {
+  return m.length > MAX_MESSAGE ? `${m.slice(0, MAX_MESSAGE - 1)}…` : m;
 }

@@ -1,5 +1,7 @@
 /**
- * exceljs ↔ the engine's workbook model: read every sheet's constants and
+ * exceljs ↔ the engine's workbook model, for scripts that build workbooks
+ * with exceljs (scripts/make-demo.ts); the command line itself reads and
+ * writes packages with xlsxRead.ts / xlsxWrite.ts: read every sheet's constants and
  * formulas (shared formulas expanded, array formulas with their range), and
  * write recalculated values back as the formulas' cached results.
  */
@@ -64,13 +66,6 @@ export function bookFromExcel(wb: ExcelJS.Workbook): InputBook {
     names.push({ name: n.name, sheet: m[1].replace(/''/g, "'"), area: parseArea(m[2].replace(/\$/g, "")) });
   }
   return { sheets, names };
-}
-
-/** Read an .xlsx file. */
-export async function readBook(file: string): Promise<{ workbook: ExcelJS.Workbook; book: InputBook }> {
-  const workbook = new ExcelJS.Workbook();
-  await workbook.xlsx.readFile(file);
-  return { workbook, book: bookFromExcel(workbook) };
 }
 
 /** A value as exceljs stores a formula's cached result; undefined = none (our #CYCLE! is not a file error code). */

@@ -61,7 +61,7 @@ describe("recalc: values", () => {
     expect(at(run({ A1: "=B7+1" }), "A1")).toBe(1);
   });
 
-  it("gives MAX, which fast-formula-parser lacks, Excel's result", () => {
+  it("gives MAX over a range Excel's result (text in a range is skipped)", () => {
     expect(at(run({ A1: 3, A2: 8, A3: "text", A4: "=MAX(A1:A3)" }), "A4")).toBe(8);
   });
 });
@@ -98,6 +98,15 @@ describe("recalc: errors stay in their cells", () => {
     expect(v.error).toBe("#VALUE!");
     expect(v.message).toMatch(/link takes one value/);
   });
+});
+
+describe("recalc: forms the engine does not compute are error cells, never a guess", () => {
+  const forms = ["OFFSET(B1,1,0)", 'INDIRECT("B1")', "B1#", "S:T!B1", "SUM(B1:B2 B2:B3)", "SUM((B1,B2))", "LAMBDA(x,x+1)(2)", "CHAR(65)"];
+  for (const f of forms)
+    it(`=${f} is an error cell with a message`, () => {
+      const v = at(run({ A1: `=${f}`, B1: 1, B2: 2, B3: 3 }), "A1") as { error: string; message?: string };
+      expect([typeof v === "object" && v !== null && v.error.startsWith("#"), typeof v === "object" && !!v?.message]).toEqual([true, true]);
+    });
 });
 
 describe("recalc: circular references", () => {
@@ -146,6 +155,11 @@ describe("recalc: spills", () => {
 describe("eval", () => {
   it("evaluates one formula", () => {
     expect(evaluateFormula('=AIRTALLY.TXTIME("OFDM 6Mbps 5GHz",100)', functions)).toBe(TXTIME_OFDM6_100);
+  });
+
+  it("refuses text past 32 767 characters instead of growing it", () => {
+    const r = run({ A1: "a".repeat(20000), A2: "=A1&A1" });
+    expect((at(r, "A2") as { error: string }).error).toBe("#VALUE!");
   });
 });
 
