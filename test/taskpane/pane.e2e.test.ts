@@ -1,7 +1,7 @@
 /**
  * The pane page end to end in headless Chromium (Debian's chromium driven by
- * playwright-core): dist/ served from 127.0.0.1, office.js routed to the npm
- * copy, no console errors, the outside-Excel notice, search, and a
+ * playwright-core): dist/ served from 127.0.0.1 by scripts/serve.js's handler,
+ * office.js routed to the npm copy, no console errors, the outside-Excel notice, search, and a
  * screenshot kept in test-artifacts/. Skips with a printed reason when
  * chromium is not installed (CI installs it) or dist/ is not built.
  */
@@ -23,19 +23,12 @@ const missing = !fs.existsSync(CHROMIUM) ? `${CHROMIUM} not found` : !fs.existsS
 if (missing) console.log(`skipping the pane end-to-end test: ${missing}`);
 const maybe = missing ? describe.skip : describe;
 
-const TYPES: Record<string, string> = { ".html": "text/html; charset=utf-8", ".js": "text/javascript", ".json": "application/json", ".png": "image/png", ".xml": "application/xml" };
+// eslint-disable-next-line @typescript-eslint/no-require-imports
+const { createHandler } = require("../../scripts/serve.js") as { createHandler: (root: string) => http.RequestListener };
 
+/** dist/ through the dev server's own handler (its CSP header applies on top of the page's meta CSP), over plain HTTP. */
 function serve(dir: string): Promise<http.Server> {
-  const server = http.createServer((req, res) => {
-    const url = new URL(req.url ?? "/", "http://127.0.0.1");
-    const file = path.join(dir, decodeURIComponent(url.pathname));
-    if (!file.startsWith(dir) || !fs.existsSync(file) || fs.statSync(file).isDirectory()) {
-      res.writeHead(404).end();
-      return;
-    }
-    res.writeHead(200, { "content-type": TYPES[path.extname(file)] ?? "application/octet-stream" });
-    fs.createReadStream(file).pipe(res);
-  });
+  const server = http.createServer(createHandler(dir));
   return new Promise((resolve) => server.listen(0, "127.0.0.1", () => resolve(server)));
 }
 
