@@ -7,7 +7,8 @@
  *   - a finite number, a non-empty string, or a rectangular matrix of
  *     finite numbers and strings; never NaN, ±Infinity, undefined or null;
  *   - or a refusal: #VALUE! or #N/A, with a message that starts with one of
- *     the function's parameter names followed by a colon ("psdu_bytes: …");
+ *     the function's parameter names followed by a colon ("psdu_bytes: …"),
+ *     at most MESSAGE_MAX_CHARS (400) characters long;
  *   - never any other exception (a TypeError escaping the wrapper would be a
  *     host-specific crash in Excel).
  *
@@ -17,6 +18,7 @@
  */
 import fc from "fast-check";
 import { loadBundle, readMetadata, SpreadsheetError, ERROR_CODES, type LoadedBundle } from "../bundle/loadBundle";
+import { MESSAGE_MAX_CHARS } from "../../src/functions/errors";
 
 export const bundle: LoadedBundle = loadBundle();
 export const metadata = readMetadata();
@@ -131,6 +133,7 @@ export function violations(fn: FunctionMeta, args: unknown[], out: Outcome): str
       if (!prefixes.some((p) => message.startsWith(`${p}:`))) {
         problems.push(`${where} → ${code} "${message}" does not start with a parameter name (${prefixes.join(", ")})`);
       }
+      if (message.length > MESSAGE_MAX_CHARS) problems.push(`${where} → a message of ${message.length} characters (> ${MESSAGE_MAX_CHARS})`);
     }
     return problems;
   }

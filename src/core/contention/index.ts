@@ -20,6 +20,7 @@ import { parseAccess } from "../mac";
 import { fixedPoint, saturation, type Saturation } from "./bianchi";
 import { edcaSaturation } from "./edca";
 import { contentionChannel } from "./adapter";
+import { BoundedMemo } from "../memo";
 
 export { attemptProbability, fixedPoint, saturation, type FixedPoint, type Saturation } from "./bianchi";
 export { edcaSaturation, type ClassResult, type MixResult } from "./edca";
@@ -65,8 +66,8 @@ export function collisionProbability(stations: unknown, cwMin?: unknown, cwMax?:
   return fixedPoint(n, lo, hi, r).p;
 }
 
-const SATURATION_CACHE_LIMIT = 1024;
-const saturationCache = new Map<string, Saturation>();
+/** Keyed by every argument's text (link and mac_options are free text), so bounded by key characters too (memo.ts). */
+const saturationCache = new BoundedMemo<Saturation>("saturation", 1024, 1024 * 256, 2048);
 
 /** A memo key when every argument is a plain value (text, number, empty); else null. */
 function keyOf(args: readonly unknown[]): string | null {
@@ -96,7 +97,6 @@ function saturationOf(
   const channel = contentionChannel(link, [{ access, stations: n }], packetBytes, mpdus, protection, macOptions);
   const result = saturation(channel);
   if (key !== null) {
-    if (saturationCache.size >= SATURATION_CACHE_LIMIT) saturationCache.delete(saturationCache.keys().next().value as string);
     saturationCache.set(key, result);
   }
   return result;
