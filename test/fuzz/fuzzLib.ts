@@ -424,9 +424,11 @@ const PLAUSIBLE: Record<string, fc.Arbitrary<unknown>> = {
   retry_limit: fc.integer({ min: 1, max: 16 }),
   access_list: fc.constantFrom([["VO"], ["BE"]], [["BK"], ["BE"], ["VI"], ["VO"]], "VO, BE", [["DCF"]]),
   counts: fc.constantFrom([[2], [8]], [[1], [1], [1], [1]], "2, 8", [[10]]),
-  distance_m: fc.double({ min: 0.1, max: 10000, noNaN: true }),
+  // FSPL takes two wavelengths and more (0.249 m at 2412 MHz, the lowest frequency below); INDOORLOSS 1 m and more.
+  distance_m: fc.double({ min: 0.25, max: 10000, noNaN: true }),
   freq_mhz: fc.constantFrom(2412, 2437, 5180, 5500, 5955, 6415),
-  distance_power: fc.constantFrom(20, 28, 30, 31, 40),
+  // Inside the accepted 17–40 (src/core/rf/pathLoss.ts DISTANCE_POWER_MIN/MAX), both ends included.
+  distance_power: fc.constantFrom(17, 20, 28, 30, 31, 40),
   floors: fc.integer({ min: 0, max: 10 }),
   floor_loss_db: fc.double({ min: 0, max: 30, noNaN: true }),
   noise_figure_db: fc.double({ min: 0, max: 15, noNaN: true }),
