@@ -96,6 +96,35 @@ maybe("the task pane in a browser outside Excel", () => {
     expect(await page.isDisabled("#explain-cell")).toBe(true);
   });
 
+  it("blocks a script from any other path of the Office host (CSP script-src is office.js's folder only)", async () => {
+    // A second page of the same context, so its expected CSP report stays out of the first page's console check.
+    const other = await browser.newPage();
+    const requested: string[] = [];
+    await other.route("https://appsforoffice.microsoft.com/**", (route: { fulfill: (r: object) => void }, request: { url: () => string }) => {
+      const pathname = new URL(request.url()).pathname;
+      requested.push(pathname);
+      // office.js itself (inside the allowed folder) gets an empty script; anything else would set the flag.
+      const body = pathname.startsWith("/lib/1/hosted/") ? "" : "window.__ranOutside = true;";
+      route.fulfill({ status: 200, contentType: "text/javascript", body });
+    });
+    const { port } = server.address() as AddressInfo;
+    await other.goto(`http://127.0.0.1:${port}/taskpane.html`);
+    const blocked: string = await other.evaluate(
+      () =>
+        new Promise<string>((resolve) => {
+          document.addEventListener("securitypolicyviolation", (e) => resolve(`${e.violatedDirective} ${e.blockedURI}`), { once: true });
+          const script = document.createElement("script");
+          script.src = "https://appsforoffice.microsoft.com/lib/2/other.js";
+          script.onload = () => resolve("loaded");
+          document.head.appendChild(script);
+        }),
+    );
+    expect(blocked).toMatch(/^script-src(-elem)? https:\/\/appsforoffice\.microsoft\.com\/lib\/2\/other\.js$/);
+    expect(requested).not.toContain("/lib/2/other.js");
+    expect(await other.evaluate(() => (window as unknown as { __ranOutside?: boolean }).__ranOutside === true)).toBe(false);
+    await other.close();
+  });
+
   it("logs no console errors and keeps a screenshot", async () => {
     fs.mkdirSync(ARTIFACTS, { recursive: true });
     await page.screenshot({ path: path.join(ARTIFACTS, "taskpane.png"), fullPage: true });
