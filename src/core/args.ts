@@ -56,10 +56,40 @@ export function orDefault<T>(value: T | null | undefined | "", fallback: T): T {
   return isMissing(value) ? fallback : (value as T);
 }
 
+/**
+ * Most characters of a user's text a message echoes (issue 16): longer text
+ * is cut there and ends with "…", so a 1 000 000-character link gives a
+ * message of a few hundred characters, not a million.
+ */
+export const ECHO_MAX_CHARS = 64;
+
+/**
+ * A fresh copy of short text that holds no reference to a larger string.
+ * V8 represents a substring (slice, split, match) as a view into its parent,
+ * so a short piece of a huge input kept in a message or a memo key would
+ * keep the whole input alive; joining the characters builds a new string.
+ */
+export function detachedCopy(text: string): string {
+  return text.split("").join("");
+}
+
+/** Text of at most `maxChars` characters: longer text is cut and ends with "…" (never between the halves of a surrogate pair). */
+export function truncated(text: string, maxChars: number): string {
+  if (text.length <= maxChars) return text;
+  let head = text.slice(0, maxChars - 1);
+  if (/[\uD800-\uDBFF]$/.test(head)) head = head.slice(0, -1);
+  return `${head}…`;
+}
+
+/** User text in double quotes for a message: at most ECHO_MAX_CHARS characters inside the quotes, the last "…" when cut. */
+export function quoted(text: string): string {
+  return `"${detachedCopy(truncated(text, ECHO_MAX_CHARS))}"`;
+}
+
 /** Short description of a bad value for error messages. */
 export function describe(value: unknown): string {
   if (value === null || value === undefined) return "an empty value";
-  if (typeof value === "string") return `"${value.length > 40 ? value.slice(0, 40) + "…" : value}"`;
+  if (typeof value === "string") return quoted(value);
   if (typeof value === "number") return String(value);
   if (Array.isArray(value)) return "a range";
   return typeof value;

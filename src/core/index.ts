@@ -5,6 +5,8 @@
  */
 export * from "./errors";
 export * from "./units";
+export { memoStats, BoundedMemo } from "./memo";
+export type { MemoStats } from "./memo";
 export { parseLink, formatLink, canonicalLink, buildLink, FAMILIES, NON_HT_FAMILIES } from "./link";
 export type { Link, Family, BandGHz, Coding } from "./link";
 export * as phy from "./phy/index";

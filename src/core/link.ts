@@ -10,9 +10,10 @@
  * the parse once.
  */
 import { AirtallyError, invalid } from "./errors";
-import { describe, isMissing } from "./args";
+import { describe, isMissing, quoted } from "./args";
 import type { GHz, MHz, MbPerSecond, Microseconds } from "./units";
 import { familyModule } from "./phy/registry";
+import { BoundedMemo } from "./memo";
 
 export const FAMILIES = ["DSSS", "HR-DSSS", "OFDM", "ERP-OFDM", "HT", "VHT", "HE", "EHT"] as const;
 export type Family = (typeof FAMILIES)[number];
@@ -108,7 +109,7 @@ const SETTING_NAMES: Readonly<Record<keyof LinkSpec, string>> = {
 };
 
 function repeated(token: string, key: keyof LinkSpec): never {
-  invalid(`link: "${token}" repeats ${SETTING_NAMES[key]}; give each setting once`);
+  invalid(`link: ${quoted(token)} repeats ${SETTING_NAMES[key]}; give each setting once`);
 }
 
 function setOnce<K extends keyof LinkSpec>(spec: LinkSpec, key: K, value: LinkSpec[K], token: string): void {
@@ -142,10 +143,10 @@ function readToken(spec: LinkSpec, raw: string): void {
   if (t === "DCM") return setOnce(spec, "dcm", true, raw);
   if (t === "SHORT" || t === "LONG") return setOnce(spec, "preamble", t === "SHORT" ? "short" : "long", raw);
   if (/^[A-Z]/.test(t) && !/\d/.test(t) && t.length <= 8 && /^[A-Z-]+$/.test(t)) {
-    invalid(`link: unknown family "${raw}"; use ${VALID_FAMILIES_TEXT}`);
+    invalid(`link: unknown family ${quoted(raw)}; use ${VALID_FAMILIES_TEXT}`);
   }
   invalid(
-    `link: unknown token "${raw}"; expected a family (${VALID_FAMILIES_TEXT}), MCS<n>, <k>SS, <w>MHz, ` +
+    `link: unknown token ${quoted(raw)}; expected a family (${VALID_FAMILIES_TEXT}), MCS<n>, <k>SS, <w>MHz, ` +
       `GI<g>, <band>GHz, <rate>Mbps or an option (LDPC, BCC, STBC, GF, 1xLTF/2xLTF/4xLTF, PE0/PE8/PE16, ER, RU26…RU2x996, DCM, short, long)`,
   );
 }
@@ -250,9 +251,12 @@ export function formatLink(link: Omit<Link, "text">): string {
   return parts.join(" ");
 }
 
-/** Bounded memo of parsed link text (STYLE.md: module state only as a bounded cache). */
-const PARSE_CACHE_LIMIT = 2048;
-const parseCache = new Map<string, Link | AirtallyError>();
+/**
+ * Bounded memo of parsed link text, by entries and by key characters
+ * (memo.ts): 2048 texts of up to 128 characters each on average, no text
+ * over 1024 characters (a canonical link is under 60).
+ */
+const parseCache = new BoundedMemo<Link | AirtallyError>("link text", 2048, 2048 * 128, 1024);
 
 function parseUncached(text: string): Link {
   const tokens = text.split(/[\s,]+/).filter((t) => t.length > 0);
@@ -282,7 +286,6 @@ export function parseLink(text: unknown): Link {
     if (!(e instanceof AirtallyError)) throw e;
     result = e;
   }
-  if (parseCache.size >= PARSE_CACHE_LIMIT) parseCache.delete(parseCache.keys().next().value as string);
   parseCache.set(text, result);
   if (result instanceof AirtallyError) throw result;
   return result;
@@ -328,7 +331,7 @@ export function buildLink(
 ): Link {
   if (typeof family !== "string" || isMissing(family)) invalid(`family: expected ${VALID_FAMILIES_TEXT}, got ${describe(family)}`);
   const fam = FAMILIES.find((f) => f === family.trim().toUpperCase());
-  if (!fam) invalid(`family: unknown family "${family}"; use ${VALID_FAMILIES_TEXT}`);
+  if (!fam) invalid(`family: unknown family ${quoted(family)}; use ${VALID_FAMILIES_TEXT}`);
   if (isMissing(mcs)) invalid(`mcs: required; the MCS index (or the rate in Mb/s for ${NON_HT_FAMILIES.join(", ")})`);
   const tokens: ArgumentToken[] = [];
   if (isNonHt(fam)) {

@@ -6,6 +6,15 @@
  * the bundle loads in a bare context with only that global defined.
  */
 import { AirtallyError } from "../core/errors";
+import { truncated } from "../core/args";
+
+/**
+ * Longest message a cell carries, characters (issue 16). The core already
+ * echoes at most ECHO_MAX_CHARS (64) characters of a user's text; this bound
+ * covers the rest (a message wrapped by a range's "item n:" prefix, an
+ * internal error's text). The longest refusal written today is about 330.
+ */
+export const MESSAGE_MAX_CHARS = 400;
 
 declare const CustomFunctions: {
   Error: new (code: string, message?: string) => Error;
@@ -16,11 +25,11 @@ declare const CustomFunctions: {
 export function toSpreadsheetError(e: unknown): Error {
   if (e instanceof AirtallyError) {
     const code = e.kind === "na" ? CustomFunctions.ErrorCode.notAvailable : CustomFunctions.ErrorCode.invalidValue;
-    return new CustomFunctions.Error(code, e.message);
+    return new CustomFunctions.Error(code, truncated(e.message, MESSAGE_MAX_CHARS));
   }
   // A bug, not bad input: still answer with #VALUE! and a message rather than a host-specific crash.
   const message = e instanceof Error ? e.message : String(e);
-  return new CustomFunctions.Error(CustomFunctions.ErrorCode.invalidValue, `internal error: ${message}`);
+  return new CustomFunctions.Error(CustomFunctions.ErrorCode.invalidValue, truncated(`internal error: ${message}`, MESSAGE_MAX_CHARS));
 }
 
 /** A number the core returned; a non-finite one is a bug and becomes #VALUE!, never a cell showing NaN. */

@@ -437,11 +437,11 @@ export function edcamix(
 /**
  * Free-space path loss (Friis).
  * @customfunction FSPL
- * @param distance_m Distance (m)
+ * @param distance_m Distance, at least two wavelengths (m)
  * @param freq_mhz Frequency (MHz)
  * @returns Path loss (dB)
  * @example =AIRTALLY.FSPL(10, 5500)
- * @remarks 20 log10(4π d f ÷ c), the Friis transmission equation in free space.
+ * @remarks 20 log10(4π d f ÷ c), the Friis transmission equation in free space. It holds in the antennas' far field (r ≫ λ; Balanis, Antenna Theory, §2.2.4), so distances under two wavelengths (2c ÷ f: 0.25 m at 2.4 GHz, 0.12 m at 5 GHz) are refused rather than answered with a loss near or below 0 dB.
  * @caution Planning estimate only: real paths add walls, people and multipath. A site survey, local regulations and licensed practice decide.
  * @helpurl https://localhost:3000/help/fspl.html
  */
@@ -454,7 +454,7 @@ export function fspl(distance_m: number, freq_mhz: number): number {
  * @customfunction INDOORLOSS
  * @param distance_m Distance, 1 m or more (m)
  * @param freq_mhz Frequency (MHz)
- * @param [distance_power] Distance power loss coefficient N, default 30
+ * @param [distance_power] Distance power loss coefficient N, 17 to 40 (ITU-R P.1238-7 Table 2 gives 17–33), default 30
  * @param [floors] Floors between transmitter and receiver (count), default 0
  * @param [floor_loss_db] Loss per floor (dB); omitted: the office floor penetration factor L_f(n) of ITU-R P.1238-7 Table 3 for the band
  * @param [walls] Walls between transmitter and receiver (count), default 0
@@ -530,7 +530,7 @@ export function toplink(
  * @param eirp_dbm EIRP of the access point as you configure it (dBm)
  * @param target_dbm Design signal level at the client (dBm)
  * @param freq_mhz Frequency (MHz)
- * @param [distance_power] Distance power loss coefficient N, default 30
+ * @param [distance_power] Distance power loss coefficient N, 17 to 40 (ITU-R P.1238-7 Table 2 gives 17–33), default 30
  * @param [floors] Floors crossed (count), default 0
  * @param [floor_loss_db] Loss per floor (dB); omitted: the office floor penetration factor L_f(n) of ITU-R P.1238-7 Table 3 for the band
  * @param [rx_gain_dbi] Client antenna gain (dBi), default 0

@@ -1,7 +1,8 @@
 /**
  * Safety of what the build emits (issue 7): the functions bundle makes no
  * network calls and evaluates no strings as code, and every page carries a
- * Content-Security-Policy. Scans dist/ (run `npm run build` first). The
+ * Content-Security-Policy whose scripts come from the page's origin and, for
+ * the pane, office.js's folder on Office's CDN only. Scans dist/ (run `npm run build` first). The
  * production-dependency audit is in .ci/run (npm audit --omit=dev), not here.
  */
 import * as fs from "fs";
@@ -80,6 +81,9 @@ describe("functions bundle safety", () => {
   });
 });
 
+/** The folder office.js is served from (taskpane.html loads `${OFFICE_JS_FOLDER}office.js`; the files it loads sit beside it). */
+const OFFICE_JS_FOLDER = "https://appsforoffice.microsoft.com/lib/1/hosted/";
+
 describe("pages", () => {
   const pages: string[] = [];
   const walk = (dir: string) => {
@@ -107,8 +111,14 @@ describe("pages", () => {
       expect(policy).toMatch(/default-src [^;]*/);
       expect(policy).not.toMatch(/unsafe-eval/);
       // Scripts limited to the page's own origin (and Office's CDN for the pane), never a wildcard.
-      const scriptSrc = (policy.match(/script-src ([^;]*)/) ?? policy.match(/default-src ([^;]*)/))![1];
-      expect(scriptSrc.split(/\s+/)).not.toContain("*");
+      const scriptSrc = (policy.match(/script-src ([^;]*)/) ?? policy.match(/default-src ([^;]*)/))![1].trim().split(/\s+/);
+      expect(scriptSrc).not.toContain("*");
+      // A host source is scoped to a folder (issue 16): office.js's, not every path of the Office host.
+      const hosts = scriptSrc.filter((s) => /^https?:/.test(s));
+      expect(hosts.filter((s) => s !== OFFICE_JS_FOLDER)).toEqual([]);
+      // Every external script the page loads falls under that folder.
+      const external = [...head.matchAll(/<script[^>]+src=["']?(https?:[^"'\s>]+)/gi)].map((m) => m[1]);
+      expect(external.filter((src) => !src.startsWith(OFFICE_JS_FOLDER))).toEqual([]);
     });
   }
 });

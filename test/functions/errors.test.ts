@@ -3,7 +3,8 @@
  * DESIGN.md §4): a non-finite number from the core is a bug and must reach
  * the cell as #VALUE! with a message, never as NaN or Infinity.
  */
-import { arrayCell, numberCell } from "../../src/functions/errors";
+import { arrayCell, MESSAGE_MAX_CHARS, numberCell } from "../../src/functions/errors";
+import { AirtallyError } from "../../src/core/errors";
 
 class HostError extends Error {
   constructor(
@@ -52,5 +53,25 @@ describe("arrayCell", () => {
 
   it("passes text and finite numbers through", () => {
     expect(arrayCell(() => [["a", 1], ["b", -2.5]])).toEqual([["a", 1], ["b", -2.5]]);
+  });
+});
+
+describe("message length (issue 16)", () => {
+  it("cuts a core message over MESSAGE_MAX_CHARS (400) to 399 characters and an ellipsis", () => {
+    const e = hostErrorFrom(() => numberCell(() => { throw new AirtallyError("value", `link: ${"m".repeat(5000)}`); }));
+    expect(e.message).toHaveLength(MESSAGE_MAX_CHARS);
+    expect(e.message).toBe(`link: ${"m".repeat(MESSAGE_MAX_CHARS - 7)}…`);
+  });
+
+  it("cuts an internal error's text the same way", () => {
+    const e = hostErrorFrom(() => numberCell(() => { throw new TypeError("z".repeat(1_000_000)); }));
+    expect(e.code).toBe("#VALUE!");
+    expect(e.message).toHaveLength(MESSAGE_MAX_CHARS);
+    expect(e.message.startsWith("internal error: zzz")).toBe(true);
+  });
+
+  it("passes a message of exactly 400 characters unchanged", () => {
+    const text = `link: ${"k".repeat(MESSAGE_MAX_CHARS - 6)}`;
+    expect(hostErrorFrom(() => numberCell(() => { throw new AirtallyError("na", text); })).message).toBe(text);
   });
 });

@@ -7,7 +7,8 @@
  *   - a finite number, a non-empty string, or a rectangular matrix of
  *     finite numbers and strings; never NaN, ±Infinity, undefined or null;
  *   - or a refusal: #VALUE! or #N/A, with a message that starts with one of
- *     the function's parameter names followed by a colon ("psdu_bytes: …");
+ *     the function's parameter names followed by a colon ("psdu_bytes: …"),
+ *     at most MESSAGE_MAX_CHARS (400) characters long;
  *   - never any other exception (a TypeError escaping the wrapper would be a
  *     host-specific crash in Excel).
  *
@@ -17,6 +18,7 @@
  */
 import fc from "fast-check";
 import { loadBundle, readMetadata, SpreadsheetError, ERROR_CODES, type LoadedBundle } from "../bundle/loadBundle";
+import { MESSAGE_MAX_CHARS } from "../../src/functions/errors";
 
 export const bundle: LoadedBundle = loadBundle();
 export const metadata = readMetadata();
@@ -131,6 +133,7 @@ export function violations(fn: FunctionMeta, args: unknown[], out: Outcome): str
       if (!prefixes.some((p) => message.startsWith(`${p}:`))) {
         problems.push(`${where} → ${code} "${message}" does not start with a parameter name (${prefixes.join(", ")})`);
       }
+      if (message.length > MESSAGE_MAX_CHARS) problems.push(`${where} → a message of ${message.length} characters (> ${MESSAGE_MAX_CHARS})`);
     }
     return problems;
   }
@@ -421,9 +424,11 @@ const PLAUSIBLE: Record<string, fc.Arbitrary<unknown>> = {
   retry_limit: fc.integer({ min: 1, max: 16 }),
   access_list: fc.constantFrom([["VO"], ["BE"]], [["BK"], ["BE"], ["VI"], ["VO"]], "VO, BE", [["DCF"]]),
   counts: fc.constantFrom([[2], [8]], [[1], [1], [1], [1]], "2, 8", [[10]]),
-  distance_m: fc.double({ min: 0.1, max: 10000, noNaN: true }),
+  // FSPL takes two wavelengths and more (0.249 m at 2412 MHz, the lowest frequency below); INDOORLOSS 1 m and more.
+  distance_m: fc.double({ min: 0.25, max: 10000, noNaN: true }),
   freq_mhz: fc.constantFrom(2412, 2437, 5180, 5500, 5955, 6415),
-  distance_power: fc.constantFrom(20, 28, 30, 31, 40),
+  // Inside the accepted 17–40 (src/core/rf/pathLoss.ts DISTANCE_POWER_MIN/MAX), both ends included.
+  distance_power: fc.constantFrom(17, 20, 28, 30, 31, 40),
   floors: fc.integer({ min: 0, max: 10 }),
   floor_loss_db: fc.double({ min: 0, max: 30, noNaN: true }),
   noise_figure_db: fc.double({ min: 0, max: 15, noNaN: true }),

@@ -1,6 +1,6 @@
 /**
  * The pane page end to end in headless Chromium (Debian's chromium driven by
- * playwright-core): dist/ served from 127.0.0.1, office.js routed to the npm
+ * playwright-core): dist/ served from 127.0.0.1 by scripts/serve.js's handler, office.js routed to the npm
  * copy, no console errors, the outside-Excel notice, search, and a
  * screenshot kept in test-artifacts/; then the same page with office.js
  * replaced by a stub Excel host (one active cell and the cells it reads), so
@@ -26,19 +26,12 @@ const missing = !fs.existsSync(CHROMIUM) ? `${CHROMIUM} not found` : !fs.existsS
 if (missing) console.log(`skipping the pane end-to-end test: ${missing}`);
 const maybe = missing ? describe.skip : describe;
 
-const TYPES: Record<string, string> = { ".html": "text/html; charset=utf-8", ".js": "text/javascript", ".json": "application/json", ".png": "image/png", ".xml": "application/xml" };
+// eslint-disable-next-line @typescript-eslint/no-require-imports
+const { createHandler } = require("../../scripts/serve.js") as { createHandler: (root: string) => http.RequestListener };
 
+/** dist/ through the dev server's own handler (its CSP header applies on top of the page's meta CSP), over plain HTTP. */
 function serve(dir: string): Promise<http.Server> {
-  const server = http.createServer((req, res) => {
-    const url = new URL(req.url ?? "/", "http://127.0.0.1");
-    const file = path.join(dir, decodeURIComponent(url.pathname));
-    if (!file.startsWith(dir) || !fs.existsSync(file) || fs.statSync(file).isDirectory()) {
-      res.writeHead(404).end();
-      return;
-    }
-    res.writeHead(200, { "content-type": TYPES[path.extname(file)] ?? "application/octet-stream" });
-    fs.createReadStream(file).pipe(res);
-  });
+  const server = http.createServer(createHandler(dir));
   return new Promise((resolve) => server.listen(0, "127.0.0.1", () => resolve(server)));
 }
 
@@ -46,6 +39,9 @@ function serve(dir: string): Promise<http.Server> {
 interface Pane {
   // eslint-disable-next-line @typescript-eslint/no-explicit-any
   page: any;
+  /** The browser context, for a second page of the same profile. */
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  context: any;
   close: () => Promise<void>;
   port: number;
 }
@@ -65,7 +61,7 @@ async function openChromium(): Promise<Pane> {
     await new Promise((r) => server.close(r));
     fs.rmSync(userDataDir, { recursive: true, force: true });
   };
-  return { page, close, port: (server.address() as AddressInfo).port };
+  return { page, context, close, port: (server.address() as AddressInfo).port };
 }
 
 maybe("the task pane in a browser outside Excel", () => {
@@ -116,6 +112,34 @@ maybe("the task pane in a browser outside Excel", () => {
     expect(await page.isVisible("#host-notice")).toBe(true);
     expect(await page.isDisabled("#insert-budget")).toBe(true);
     expect(await page.isDisabled("#explain-cell")).toBe(true);
+  });
+
+  it("blocks a script from any other path of the Office host (CSP script-src is office.js's folder only)", async () => {
+    // A second page of the same context, so its expected CSP report stays out of the first page's console check.
+    const other = await pane.context.newPage();
+    const requested: string[] = [];
+    await other.route("https://appsforoffice.microsoft.com/**", (route: { fulfill: (r: object) => void }, request: { url: () => string }) => {
+      const pathname = new URL(request.url()).pathname;
+      requested.push(pathname);
+      // office.js itself (inside the allowed folder) gets an empty script; anything else would set the flag.
+      const body = pathname.startsWith("/lib/1/hosted/") ? "" : "window.__ranOutside = true;";
+      route.fulfill({ status: 200, contentType: "text/javascript", body });
+    });
+    await other.goto(`http://127.0.0.1:${pane.port}/taskpane.html`);
+    const blocked: string = await other.evaluate(
+      () =>
+        new Promise<string>((resolve) => {
+          document.addEventListener("securitypolicyviolation", (e) => resolve(`${e.violatedDirective} ${e.blockedURI}`), { once: true });
+          const script = document.createElement("script");
+          script.src = "https://appsforoffice.microsoft.com/lib/2/other.js";
+          script.onload = () => resolve("loaded");
+          document.head.appendChild(script);
+        }),
+    );
+    expect(blocked).toMatch(/^script-src(-elem)? https:\/\/appsforoffice\.microsoft\.com\/lib\/2\/other\.js$/);
+    expect(requested).not.toContain("/lib/2/other.js");
+    expect(await other.evaluate(() => (window as unknown as { __ranOutside?: boolean }).__ranOutside === true)).toBe(false);
+    await other.close();
   });
 
   it("logs no console errors and keeps a screenshot", async () => {

@@ -7,6 +7,7 @@
  *   CONTENTION  contentionShare(link, stations, packet_bytes, …)
  *   EDCAMIX     edcaMix(link, access_list, counts, packet_bytes, …)
  */
+import { BoundedMemo } from "../memo";
 import { AirtallyError, invalid, noAnswer } from "../errors";
 import { describe, integerInRange, isMissing } from "../args";
 import type { MbPerSecond, Share } from "../units";
@@ -72,8 +73,8 @@ function refuseCrowd(arg: string, stations: number, name: string, p: number): ne
   );
 }
 
-const SATURATION_CACHE_LIMIT = 1024;
-const saturationCache = new Map<string, Saturation>();
+/** Keyed by every argument's text (link and mac_options are free text), so bounded by key characters too (memo.ts). */
+const saturationCache = new BoundedMemo<Saturation>("saturation", 1024, 1024 * 256, 2048);
 
 /** A memo key when every argument is a plain value (text, number, empty); else null. */
 function keyOf(args: readonly unknown[]): string | null {
@@ -103,10 +104,7 @@ function saturationOf(
   const channel = contentionChannel(link, [{ access, stations: n }], packetBytes, mpdus, protection, macOptions);
   const result = saturation(channel);
   if (outsideModel(channel.classes[0], result.p)) refuseCrowd("stations", n, channel.classes[0].name, result.p);
-  if (key !== null) {
-    if (saturationCache.size >= SATURATION_CACHE_LIMIT) saturationCache.delete(saturationCache.keys().next().value as string);
-    saturationCache.set(key, result);
-  }
+  if (key !== null) saturationCache.set(key, result);
   return result;
 }
 

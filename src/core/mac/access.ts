@@ -18,7 +18,7 @@
  *     = 37 (AIFS 10 + 3 × 9) + 67.5 (7.5 × 9) + 258 (TXTIME of 1554 octets) + 10 (SIFS) + 34 (Ack at 24 Mb/s) = 406.5
  */
 import { invalid } from "../errors";
-import { isMissing } from "../args";
+import { isMissing, quoted } from "../args";
 import type { Bytes, MbPerSecond, Microseconds } from "../units";
 import type { EdcaParameters, Protection } from "./edca";
 import { aggregationLimit } from "./aggregation";
@@ -56,7 +56,7 @@ export function resolveMpdus(ctx: ExchangeContext, mpdus: unknown): number {
   const limit = aggregationLimit(ctx);
   if (isMissing(mpdus) || (typeof mpdus === "string" && mpdus.trim().toLowerCase() === "auto")) return limit.count;
   if (typeof mpdus !== "number" || !Number.isInteger(mpdus) || mpdus < 1) {
-    invalid(`mpdus: expected "auto" or a whole number of MPDUs of 1 or more, got ${typeof mpdus === "string" ? `"${mpdus}"` : String(mpdus)}`);
+    invalid(`mpdus: expected "auto" or a whole number of MPDUs of 1 or more, got ${typeof mpdus === "string" ? quoted(mpdus) : String(mpdus)}`);
   }
   if (mpdus > limit.count) {
     if (!ctx.aggregates) invalid(`mpdus: ${mpdus} needs an A-MPDU, but ${limit.reason} sends one MPDU per PPDU; use 1 or "auto"`);

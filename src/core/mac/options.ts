@@ -13,7 +13,7 @@
  * against the link where they are used (aggregation.ts, timing.ts).
  */
 import { invalid } from "../errors";
-import { describe, isMissing } from "../args";
+import { describe, isMissing, quoted } from "../args";
 import type { MbPerSecond, Microseconds } from "../units";
 
 export const CIPHERS = ["open", "CCMP-128", "CCMP-256", "GCMP-128", "GCMP-256"] as const;
@@ -112,7 +112,7 @@ type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 function wholeSetting(name: string, raw: string, min: number, max: number, unit = ""): number {
   const n = Number(raw);
   if (raw === "" || !Number.isInteger(n) || n < min || n > max) {
-    invalid(`mac_options: ${name}= must be a whole number from ${min} to ${max}${unit ? " " + unit : ""}, got "${raw}"`);
+    invalid(`mac_options: ${name}= must be a whole number from ${min} to ${max}${unit ? " " + unit : ""}, got ${quoted(raw)}`);
   }
   return n;
 }
@@ -129,13 +129,13 @@ function contentionWindow(name: string, raw: string): number {
 function basicRate(raw: string): MbPerSecond {
   const r = Number(raw);
   if (raw === "" || !NON_HT_RATES_Mbps.includes(r)) {
-    invalid(`mac_options: BASIC= takes rates in Mb/s from ${NON_HT_RATES_Mbps.join(", ")}, got "${raw}"`);
+    invalid(`mac_options: BASIC= takes rates in Mb/s from ${NON_HT_RATES_Mbps.join(", ")}, got ${quoted(raw)}`);
   }
   return r;
 }
 
 function setOnce<K extends keyof MacOptions>(o: Mutable<MacOptions>, seen: Set<string>, key: K, value: MacOptions[K], token: string): void {
-  if (seen.has(key)) invalid(`mac_options: "${token}" repeats a setting (each setting may appear once)`);
+  if (seen.has(key)) invalid(`mac_options: ${quoted(token)} repeats a setting (each setting may appear once)`);
   seen.add(key);
   o[key] = value;
 }
@@ -172,7 +172,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
     if (t === "TCP") { setOnce(o, seen, "tcp", true, raw); continue; }
     if (t === "BAR") { setOnce(o, seen, "blockAckReq", true, raw); continue; }
     const m = t.match(/^([A-Z]+)=(.*)$/);
-    if (!m) invalid(`mac_options: unknown setting "${raw}"; ${VALID_TEXT}`);
+    if (!m) invalid(`mac_options: unknown setting ${quoted(raw)}; ${VALID_TEXT}`);
     const [, key, value] = m;
     switch (key) {
       case "AMSDU": setOnce(o, seen, "amsdu", wholeSetting("AMSDU", value, 1, AMSDU_MAX, "MSDUs"), raw); break;
@@ -185,7 +185,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
       case "RETRY": setOnce(o, seen, "retryLimit", wholeSetting("RETRY", value, 1, RETRY_MAX, "attempts"), raw); break;
       case "TCPACK": setOnce(o, seen, "tcpAckSegments", wholeSetting("TCPACK", value, 1, TCPACK_MAX, "segments"), raw); break;
       case "SLOT": {
-        if (value !== "9" && value !== "20") invalid(`mac_options: SLOT= must be 9 or 20 (µs), got "${value}"`);
+        if (value !== "9" && value !== "20") invalid(`mac_options: SLOT= must be 9 or 20 (µs), got ${quoted(value)}`);
         setOnce(o, seen, "slotUs", Number(value) as 9 | 20, raw);
         break;
       }
@@ -195,7 +195,7 @@ function parseMacOptionsText(text: unknown): MacOptions {
         break;
       }
       default:
-        invalid(`mac_options: unknown setting "${raw}"; ${VALID_TEXT}`);
+        invalid(`mac_options: unknown setting ${quoted(raw)}; ${VALID_TEXT}`);
     }
   }
   if (o.basicRatesMbps !== null) {

@@ -6,6 +6,7 @@ import { parseLink, type Link } from "../link";
 import { finiteNumber, integerInRange } from "../args";
 import { AirtallyError, invalid } from "../errors";
 import { familyModule } from "./registry";
+import { BoundedMemo } from "../memo";
 import type { PhyFamily, TxTime } from "./types";
 import type { Bytes, Dbm, MbPerSecond, Microseconds } from "../units";
 
@@ -23,8 +24,8 @@ export function asLink(link: unknown): Link {
  * its sensitivity and the TXTIMEs already computed — kept per link so that a
  * workbook of thousands of rows pointing at a few link cells pays for each
  * equation once. Keyed by the text as given and by the canonical text (for
- * Link objects), bounded like the parse cache (STYLE.md: module state only as
- * bounded caches). Values are the same numbers the family modules return.
+ * Link objects), bounded like the parse cache by entries and key characters
+ * (memo.ts; STYLE.md: module state only as bounded caches). Values are the same numbers the family modules return.
  */
 interface LinkFacts {
   readonly link: Link;
@@ -45,7 +46,6 @@ interface LinkFacts {
   txtimeValues: Float64Array;
 }
 
-const FACTS_LIMIT = 2048;
 const TXTIME_SLOT_BITS = 8;
 const TXTIME_SLOTS = 1 << TXTIME_SLOT_BITS;
 
@@ -58,7 +58,7 @@ const TXTIME_SLOTS = 1 << TXTIME_SLOT_BITS;
 function txtimeSlot(psduBytes: number): number {
   return Math.imul(psduBytes, 0x9e3779b1) >>> (32 - TXTIME_SLOT_BITS);
 }
-const factsCache = new Map<string, LinkFacts>();
+const factsCache = new BoundedMemo<LinkFacts>("link facts", 2048, 2048 * 128, 1024);
 /** The tables of a link with no TXTIME yet (never written). Every field keeps one type from creation on, so the JIT sees one object shape. */
 const NO_TXTIME_KEYS = new Float64Array(TXTIME_SLOTS).fill(NaN);
 const NO_TXTIME_VALUES = new Float64Array(TXTIME_SLOTS);
@@ -95,7 +95,6 @@ function factsOnMiss(link: unknown): LinkFacts {
     txtimeKeys: NO_TXTIME_KEYS,
     txtimeValues: NO_TXTIME_VALUES,
   };
-  if (factsCache.size >= FACTS_LIMIT) factsCache.delete(factsCache.keys().next().value as string);
   factsCache.set(key ?? l.text, facts);
   return facts;
 }

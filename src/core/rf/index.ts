@@ -4,7 +4,7 @@
  * estimates, not a replacement for a site survey; local regulations, codes
  * and licensed practice decide.
  */
-export { fsplDb, indoorLossDb, reachM, SPEED_OF_LIGHT_m_per_s, P1238_EDITION, P1238_CONSTANT_dB, DEFAULT_DISTANCE_POWER } from "./pathLoss";
+export { fsplDb, indoorLossDb, reachM, SPEED_OF_LIGHT_m_per_s, P1238_EDITION, P1238_CONSTANT_dB, DEFAULT_DISTANCE_POWER, DISTANCE_POWER_MIN, DISTANCE_POWER_MAX, FSPL_MIN_WAVELENGTHS } from "./pathLoss";
 export { wallsLossDb, commonWallLossDb, COMMON_WALL_LOSS_dB } from "./walls";
 export { officeFloorLossDb, P1238_OFFICE_FLOOR_SPANS_MHz } from "./p1238";
 export { p1238Coefficients, P1238_TABLES, P1238_BANDS, P1238_ENVIRONMENTS } from "./p1238";

@@ -28,16 +28,41 @@ export const SPEED_OF_LIGHT_m_per_s = 299_792_458;
  * Planning estimate only (see the module note): local regulations, codes and
  * licensed practice decide.
  *
+ * Far field only. The Friis equation holds in the far field of the
+ * antennas: r > 2D²/λ, r ≫ D and r ≫ λ for an antenna of largest dimension
+ * D (C. A. Balanis, Antenna Theory: Analysis and Design, 3rd ed., Wiley
+ * 2005, §2.2.4; T. S. Rappaport, Wireless Communications: Principles and
+ * Practice, 2nd ed., Prentice Hall 2002, §4.3 — section numbers from memory).
+ * FSPL knows no antenna size, so it takes the wavelength condition: distance
+ * at least FSPL_MIN_WAVELENGTHS (2) wavelengths λ = c ÷ f — our reading of
+ * "r ≫ λ", which for a half-wave dipole (D = λ/2, 2D²/λ = λ/2) also clears
+ * the Fraunhofer distance. Closer than that the equation's loss shrinks
+ * towards 0 dB and below (at d = λ/4π it is 0 dB: FSPL(0.001, 5180) would be
+ * −13.3 dB, a gain), which no path has: #VALUE! naming distance_m.
+ *
  * Example: fsplDb(10, 2437) → 60.18 dB.
  */
 /** FSPL's accepted range: 1 kHz to 10 THz, up to 10⁹ m — far outside Wi-Fi, only to keep the result finite. */
 const FSPL_MIN_FREQ_MHz: MHz = 0.001;
 const FSPL_MAX_FREQ_MHz: MHz = 1e7;
 const FSPL_MAX_DISTANCE_m: Meters = 1e9;
+/** Shortest distance FSPL accepts, in wavelengths (the far-field condition above). */
+export const FSPL_MIN_WAVELENGTHS = 2;
+/** The bound as d·f, m·MHz: d ≥ 2λ = 2c ÷ f  ⇔  d·f ≥ 2c ÷ 10⁶ (one multiply and compare on the hot path). */
+const FSPL_MIN_DISTANCE_TIMES_FREQ_m_MHz = (FSPL_MIN_WAVELENGTHS * SPEED_OF_LIGHT_m_per_s) / 1e6;
+
+function inNearField(d: number, f: number): never {
+  const minimum = FSPL_MIN_DISTANCE_TIMES_FREQ_m_MHz / f;
+  invalid(
+    `distance_m: the Friis free-space equation holds in the far field only; at ${f} MHz use at least ` +
+      `${FSPL_MIN_WAVELENGTHS} wavelengths (${+minimum.toPrecision(3)} m), got ${d}`,
+  );
+}
 
 export function fsplDb(distanceM: unknown, freqMHz: unknown): Db {
   const d = atMost("distance_m", positive("distance_m", finiteNumber("distance_m", distanceM), "m"), FSPL_MAX_DISTANCE_m, "m");
   const f = atLeast("freq_mhz", atMost("freq_mhz", finiteNumber("freq_mhz", freqMHz), FSPL_MAX_FREQ_MHz, "MHz"), FSPL_MIN_FREQ_MHz, "MHz");
+  if (!(d * f >= FSPL_MIN_DISTANCE_TIMES_FREQ_m_MHz)) inNearField(d, f);
   return 20 * Math.log10((4 * Math.PI * d * f * 1e6) / SPEED_OF_LIGHT_m_per_s);
 }
 
@@ -60,6 +85,19 @@ export const P1238_MIN_DISTANCE_m: Meters = 1;
 
 /** Catalog default N = 30, P.1238-7 Table 2's office value at 1.8–2 GHz (DESIGN.md §2). */
 export const DEFAULT_DISTANCE_POWER = 30;
+/**
+ * Range of the distance power loss coefficient N that the model is used
+ * with. P.1238-7 Table 2 gives N from 17 (60 GHz, commercial) to 33
+ * (900 MHz, office), 28–31 at 2.4–5.2 GHz (from memory of the table); the
+ * upper bound 40 is N = 10·4, the inverse-fourth-power decay of the two-ray
+ * ground reflection model (Rappaport, Wireless Communications, 2nd ed.,
+ * §4.6, from memory), the steepest distance power of the common models, for
+ * dense buildings where a planner chooses more than the table. A value
+ * under 10 is most likely the path loss exponent n (N = 10·n), so the
+ * message says so: REACH with 3 instead of 30 would answer 372 507 426 m.
+ */
+export const DISTANCE_POWER_MIN = 17;
+export const DISTANCE_POWER_MAX = 40;
 
 /** The model's arguments after checks. */
 interface IndoorModel {
@@ -84,7 +122,11 @@ function outsideBands(f: number): never {
   invalid(`freq_mhz: ${P1238_EDITION} covers ${P1238_MIN_FREQ_MHz} to ${P1238_MAX_FREQ_MHz} MHz, got ${f}`);
 }
 function badDistancePower(n: number): never {
-  invalid(`distance_power: the coefficient N must be above 0 and at most 100 (P.1238 tables give 17–33), got ${n}`);
+  const exponentHint = n > 0 && n < 10 ? `; ${n} looks like the path loss exponent n, and N = 10·n (${10 * n})` : "";
+  invalid(
+    `distance_power: the coefficient N must be from ${DISTANCE_POWER_MIN} to ${DISTANCE_POWER_MAX} ` +
+      `(ITU-R P.1238-7 Table 2 gives 17–33; 40 is a fourth-power decay), got ${n}${exponentHint}`,
+  );
 }
 function belowModel(d: number): never {
   invalid(`distance_m: the P.1238 model holds from ${P1238_MIN_DISTANCE_m} m, got ${d}`);
@@ -94,7 +136,7 @@ function readModel(freqMHz: unknown, distancePower: unknown, floors: unknown, fl
   const f = finiteNumber("freq_mhz", freqMHz);
   if (f < P1238_MIN_FREQ_MHz || f > P1238_MAX_FREQ_MHz) outsideBands(f);
   const n = optionalNumber("distance_power", distancePower, DEFAULT_DISTANCE_POWER);
-  if (!(n > 0 && n <= 100)) badDistancePower(n);
+  if (!(n >= DISTANCE_POWER_MIN && n <= DISTANCE_POWER_MAX)) badDistancePower(n);
   const nFloors = atMost("floors", wholeNonNegative("floors", optionalNumber("floors", floors, 0)), INDOOR_MAX_FLOORS, "");
   return {
     freqMHz: f,

@@ -1,5 +1,6 @@
 import { fsplDb, indoorLossDb, reachM } from "../../../src/core/rf/index";
 import { AirtallyError } from "../../../src/core/errors";
+import { expectValueError } from "../../_lib/expectError";
 
 /** Expect an AirtallyError of `kind` whose message starts with the argument name. */
 function expectRefusal(fn: () => unknown, kind: "value" | "na", argument: string): void {
@@ -40,6 +41,31 @@ describe("FSPL (Friis)", () => {
 
   it("refuses text for the distance", () => {
     expectRefusal(() => fsplDb("ten", 2400), "value", "distance_m");
+  });
+
+  describe("far field only (issue 16; Balanis §2.2.4 / Rappaport §4.3: r ≫ λ; our bound 2λ)", () => {
+    // λ at 5180 MHz = 299 792 458 ÷ 5.18e9 = 0.057875 m, so 2λ = 0.115750 m (speed of light exact by the SI).
+    const twoWavelengthsAt5180 = (2 * 299_792_458) / 5.18e9;
+
+    it("gives 20·log10(8π) = 28.00 dB at exactly two wavelengths, the nearest distance it accepts", () => {
+      // Friis at d = 2λ: 20·log10(4π·2λ ÷ λ) = 20·log10(25.1327) = 20 × 1.400240 = 28.0048 dB, whatever the frequency
+      expect(fsplDb(twoWavelengthsAt5180, 5180)).toBeCloseTo(28.0048, 3);
+    });
+
+    it("refuses FSPL(0.001, 5180), which the equation would make −13.3 dB, naming distance_m and the range", () => {
+      // 20·log10(4π·0.001 ÷ 0.057875) = −13.27 dB: a gain, no path loss
+      expectValueError(() => fsplDb(0.001, 5180), /^distance_m: the Friis free-space equation holds in the far field only; at 5180 MHz use at least 2 wavelengths \(0\.116 m\), got 0\.001$/);
+    });
+
+    it("refuses just inside two wavelengths", () => {
+      expectRefusal(() => fsplDb(twoWavelengthsAt5180 * 0.999, 5180), "value", "distance_m");
+    });
+
+    it("scales the bound with the wavelength: 0.2 m is refused at 2412 MHz (2λ = 0.249 m) and accepted at 5500 MHz (2λ = 0.109 m)", () => {
+      expectRefusal(() => fsplDb(0.2, 2412), "value", "distance_m");
+      // 20·log10(4π·0.2·5.5e9 ÷ c) = 33.29 dB
+      expect(fsplDb(0.2, 5500)).toBeCloseTo(20 * Math.log10((4 * Math.PI * 0.2 * 5.5e9) / 299_792_458), 9);
+    });
   });
 });
 
@@ -119,6 +145,20 @@ describe("INDOORLOSS (ITU-R P.1238-7 site-general model, eq. (1))", () => {
   it("refuses a zero distance power coefficient", () => {
     expectRefusal(() => indoorLossDb(10, 2400, 0), "value", "distance_power");
   });
+
+  describe("distance power coefficient N within 17–40 (P.1238-7 Table 2: 17–33, from memory; 40 a fourth-power decay)", () => {
+    it.each([17, 40])("accepts N = %p: 20·log10(5200) − 28 + N·log10(20)", (n) => {
+      expect(indoorLossDb(20, 5200, n)).toBeCloseTo(20 * Math.log10(5200) - 28 + n * Math.log10(20), 9);
+    });
+
+    it.each([16.9, 40.1, 100, -30])("refuses N = %p naming distance_power and the range", (n) => {
+      expectValueError(() => indoorLossDb(20, 5200, n), /^distance_power: the coefficient N must be from 17 to 40 \(ITU-R P\.1238-7 Table 2 gives 17–33/);
+    });
+
+    it("says a value under 10 looks like the exponent n, with N = 10·n", () => {
+      expectValueError(() => indoorLossDb(20, 5200, 3), /got 3; 3 looks like the path loss exponent n, and N = 10·n \(30\)$/);
+    });
+  });
 });
 
 describe("REACH (INDOORLOSS solved for distance)", () => {
@@ -148,6 +188,11 @@ describe("REACH (INDOORLOSS solved for distance)", () => {
   it("returns 1 m when the target is exactly the signal at 1 m", () => {
     // at 1 m the loss is 20·log10(f) − 28; 2400 MHz: 39.604 dB
     expect(reachM(10, 10 - (20 * Math.log10(2400) - 28), 2400)).toBeCloseTo(1, 9);
+  });
+
+  it("refuses distance_power 3 (an exponent where N is meant), which would answer 372 507 426 107 660 m", () => {
+    // 10^((20 + 70 − 20·log10(5180) + 28) ÷ 3) = 10^14.57: the issue 16 case
+    expectValueError(() => reachM(20, -70, 5180, 3), /^distance_power: the coefficient N must be from 17 to 40 .*N = 10·n \(30\)$/);
   });
 
   it("refuses a target above the EIRP", () => {
