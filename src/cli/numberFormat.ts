@@ -2,9 +2,9 @@
  * Display text of a number under a spreadsheet number format code, so the
  * command line can print a cell as a spreadsheet shows it (70% for 0.7 under
  * "0%", 3.1% for 0.031084 under "0.0%", 1,235 for 1234.5 under "#,##0").
- * Pure; not yet wired into the tables (src/cli/table.ts is being rewritten
- * separately): the caller passes the cell's numFmt (exceljs `cell.numFmt`)
- * and falls back to General where this returns null.
+ * Pure; src/cli/table.ts passes each cell's format code (read from the
+ * styles part by xlsxRead.ts) and falls back to General where this returns
+ * null.
  *
  * The rules are those of the number format codes of ECMA-376 Part 1
  * (SpreadsheetML numFmt formatCode), as spreadsheet programs apply them

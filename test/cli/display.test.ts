@@ -185,6 +185,13 @@ describe("--csv", () => {
   });
 });
 
+describe("--help", () => {
+  it("lists --csv and --width", async () => {
+    const r = await cli(["--help"]);
+    expect([/--csv +print the sheets as CSV/.test(r.out), /--width N +cut text cells/.test(r.out)]).toEqual([true, true]);
+  });
+});
+
 describe("--out", () => {
   it("refuses an option as its value: --out --quiet is a usage error (exit 2), not a file named --quiet", async () => {
     const cwd = process.cwd();
