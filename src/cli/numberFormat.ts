@@ -254,19 +254,38 @@ function applySection(x: number, s: Section): string {
  */
 export function formatNumber(value: number, code: string): string | null {
   if (!Number.isFinite(value)) return null;
+  const sections = parsedCode(code);
+  if (!sections) return null;
+  const numeric = sections.slice(0, 3);
+  if (value === 0 && numeric.length >= 3) return applySection(0, numeric[2]);
+  if (value < 0 && numeric.length >= 2) return applySection(-value, numeric[1]);
+  const text = applySection(Math.abs(value), numeric[0]);
+  // One section: a minus sign, also when the digits shown round to zero ("-0", as spreadsheets following the
+  // code literally show it; LibreOffice drops that sign — test/cli/numberFormat.test.ts lists the difference).
+  return value < 0 ? "-" + text : text;
+}
+
+/**
+ * Parsed codes, remembered: a sheet repeats a handful of codes over many
+ * cells, and parsing is most of the cost of a formatted cell. Bounded (a
+ * workbook may hold many codes): the memo starts again when full.
+ */
+const MAX_PARSED_CODES = 1024;
+const parsed = new Map<string, Section[] | null>();
+
+/** The sections of a code, or null when the code uses something unsupported. */
+function parsedCode(code: string): Section[] | null {
+  let sections = parsed.get(code);
+  if (sections !== undefined) return sections;
   try {
-    const sections = splitSections(code.trim() === "" ? "General" : code).map(parseSection);
-    const numeric = sections.slice(0, 3);
-    if (value === 0 && numeric.length >= 3) return applySection(0, numeric[2]);
-    if (value < 0 && numeric.length >= 2) return applySection(-value, numeric[1]);
-    const text = applySection(Math.abs(value), numeric[0]);
-    // One section: a minus sign, also when the digits shown round to zero ("-0", as spreadsheets following the
-    // code literally show it; LibreOffice drops that sign — test/cli/numberFormat.test.ts lists the difference).
-    return value < 0 ? "-" + text : text;
+    sections = splitSections(code.trim() === "" ? "General" : code).map(parseSection);
   } catch (e) {
-    if (e instanceof Unsupported) return null;
-    throw e;
+    if (!(e instanceof Unsupported)) throw e;
+    sections = null;
   }
+  if (parsed.size >= MAX_PARSED_CODES) parsed.clear();
+  parsed.set(code, sections);
+  return sections;
 }
 
 /** Text under a format code: the text section's `@` replaced by the text; without one, the text itself. */
