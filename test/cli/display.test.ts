@@ -14,7 +14,7 @@ import * as os from "os";
 import * as path from "path";
 import ExcelJS from "exceljs";
 import { parseString } from "fast-csv";
-import { BUILTIN_NUMBER_FORMATS } from "../../src/cli/cellFormats";
+import { BUILTIN_NUMBER_FORMATS, STYLE_LIMITS } from "../../src/cli/cellFormats";
 import { CLI_CAUTION } from "../../src/cli/caution";
 import { EXIT, main } from "../../src/cli/main";
 import { workbookParts, zipParts } from "./support/writeXlsx";
@@ -66,6 +66,12 @@ async function cli(args: string[], outIsTTY = false): Promise<{ code: number; ou
 function tableRow(out: string, row: number): string[] {
   const line = out.split("\n").find((l) => l.startsWith(`${row} `) || l.startsWith(`${row}|`))!;
   return line.split("|").slice(1).map((s) => s.trim());
+}
+
+/** Add the workbook's relationship to xl/styles.xml (the Styles part relationship type of ECMA-376 Part 1). */
+function linkStyles(parts: Map<string, string>): void {
+  const rels = "xl/_rels/workbook.xml.rels";
+  parts.set(rels, parts.get(rels)!.replace("</Relationships>", '<Relationship Id="rIdStyles" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/styles" Target="styles.xml"/></Relationships>'));
 }
 
 function parseCsv(text: string): Promise<string[][]> {
@@ -120,7 +126,7 @@ describe("the built-in number formats", () => {
       "xl/styles.xml",
       '<?xml version="1.0" encoding="UTF-8"?><styleSheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"><cellStyleXfs count="1"><xf numFmtId="9"/></cellStyleXfs><cellXfs count="3"><xf numFmtId="0"/><xf numFmtId="10"/><xf numFmtId="3"/></cellXfs></styleSheet>',
     );
-    parts.set("xl/_rels/workbook.xml.rels", parts.get("xl/_rels/workbook.xml.rels")!.replace("</Relationships>", '<Relationship Id="rIdStyles" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/styles" Target="styles.xml"/></Relationships>'));
+    linkStyles(parts);
     const file = path.join(dir, "builtin.xlsx");
     await zipParts(file, parts);
     const r = await cli(["recalc", file]);
@@ -209,11 +215,32 @@ describe("a hostile styles part", () => {
   it("is refused when it has a DOCTYPE (exit 2), like every other part", async () => {
     const parts = workbookParts({ sheets: [{ name: "S", cells: [{ ref: "A1", value: 1 }] }] });
     parts.set("xl/styles.xml", '<?xml version="1.0"?><!DOCTYPE s [<!ENTITY a "aaaa">]><styleSheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"/>');
-    parts.set("xl/_rels/workbook.xml.rels", parts.get("xl/_rels/workbook.xml.rels")!.replace("</Relationships>", '<Relationship Id="rIdStyles" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/styles" Target="styles.xml"/></Relationships>'));
+    linkStyles(parts);
     const file = path.join(dir, "doctype-styles.xlsx");
     await zipParts(file, parts);
     const r = await cli(["recalc", file]);
     expect([r.code, /DOCTYPE/.test(r.err)]).toEqual([EXIT.usage, true]);
+  });
+
+  it("keeps no more than the bounded number of cell formats and no over-long code: those cells print as General", async () => {
+    const last = STYLE_LIMITS.maxCellFormats; // index of the first entry past the bound
+    const longCode = "0" + '" "'.repeat(100) + "%"; // 302 characters, a valid code past the 255 bound
+    const parts = workbookParts({ sheets: [{ name: "S", cells: [{ ref: "A1", value: 0.7 }, { ref: "A2", value: 0.7 }, { ref: "A3", value: 0.7 }] }] });
+    parts.set(
+      "xl/worksheets/sheet1.xml",
+      parts.get("xl/worksheets/sheet1.xml")!.replace('<c r="A1"', '<c r="A1" s="1"').replace('<c r="A2"', `<c r="A2" s="${last}"`).replace('<c r="A3"', '<c r="A3" s="2"'),
+    );
+    const xfs = Array.from({ length: last + 1 }, (_, i) => `<xf numFmtId="${i === 2 ? 164 : 9}"/>`).join("");
+    parts.set(
+      "xl/styles.xml",
+      `<?xml version="1.0" encoding="UTF-8"?><styleSheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"><numFmts count="1"><numFmt numFmtId="164" formatCode="${longCode.replace(/"/g, "&quot;")}"/></numFmts><cellXfs count="${last + 1}">${xfs}</cellXfs></styleSheet>`,
+    );
+    linkStyles(parts);
+    const file = path.join(dir, "many-styles.xlsx");
+    await zipParts(file, parts);
+    const r = await cli(["recalc", file]);
+    // Entry 1 (within the bound) is built-in 9, "0%": 70%. Entry `last` is past the bound, entry 2 names the over-long code: General.
+    expect([r.code, tableRow(r.out, 1)[0], tableRow(r.out, 2)[0], tableRow(r.out, 3)[0]]).toEqual([EXIT.ok, "70%", "0.7", "0.7"]);
   });
 });
 
