@@ -27,7 +27,7 @@
  *   "0.00" shows 1.01, not the binary double's 1.00.
  *
  * Not supported (formatNumber returns null, so a caller can fall back to
- * General and say so): dates and times, conditions such as `[>=100]`,
+ * General and say so): a number under a text section (`@`), dates and times, conditions such as `[>=100]`,
  * fractions (`# ?/?`), engineering exponents (`##0.0E+0`).
  */
 
@@ -257,8 +257,10 @@ export function formatNumber(value: number, code: string): string | null {
   const sections = parsedCode(code);
   if (!sections) return null;
   const numeric = sections.slice(0, 3);
-  if (value === 0 && numeric.length >= 3) return applySection(0, numeric[2]);
-  if (value < 0 && numeric.length >= 2) return applySection(-value, numeric[1]);
+  const section = value === 0 && numeric.length >= 3 ? numeric[2] : value < 0 && numeric.length >= 2 ? numeric[1] : numeric[0];
+  // A text section (`@`, the Text format) does not format numbers: a number there shows as General, so the caller's.
+  if (section.hasText) return null;
+  if (section !== numeric[0]) return applySection(Math.abs(value), section);
   const text = applySection(Math.abs(value), numeric[0]);
   // One section: a minus sign, also when the digits shown round to zero ("-0", as spreadsheets following the
   // code literally show it; LibreOffice drops that sign — test/cli/numberFormat.test.ts lists the difference).

@@ -39,6 +39,7 @@ const CELLS: [string, number | string | { formula: string }, string | undefined,
   ["B1", LONG_TEXT, undefined, LONG_TEXT, "text"],
   ["B2", QUOTED_TEXT, undefined, QUOTED_TEXT, "text with a comma and quotes"],
   ["B3", 42, '0" MB"', "42 MB", "a literal after the number"],
+  ["B4", 5.25, "@", "5.25", "a number under the Text format (built-in 49) shows as General, not as @"],
 ];
 
 let book: string;
