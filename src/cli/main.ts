@@ -1,7 +1,7 @@
 /**
  * airtally — Airtally without Excel.
  *
- *   airtally recalc BOOK.xlsx [--out OUT.xlsx] [--sheet NAME]... [--quiet]
+ *   airtally recalc BOOK.xlsx [--out OUT.xlsx] [--sheet NAME]... [--quiet | --csv] [--width N]
  *   airtally eval '=AIRTALLY.RATE("HE MCS11 2SS 80MHz")'
  *
  * Exit codes (also in README and `airtally --help`):
@@ -13,7 +13,8 @@ import * as path from "path";
 import { DEFAULT_DIST, loadAirtally, type AirtallyFunction } from "./bundle";
 import { CLI_CAUTION, speaksOfPower } from "./caution";
 import { evaluateFormula, isCellError, Recalc, type Value } from "./engine";
-import { errorList, formatValue, printable, printSheet } from "./table";
+import { CellFormats } from "./cellFormats";
+import { errorList, formatValue, printable, printCsv, printSheet, TERMINAL_CELL_WIDTH } from "./table";
 import { loadPackage, type LoadedBook } from "./xlsxRead";
 import { sameFile, writePackage } from "./xlsxWrite";
 import { RefusedInput, ZIP_LIMITS } from "./zip";
@@ -23,12 +24,19 @@ export const EXIT = { ok: 0, cellErrors: 1, usage: 2, cycle: 3 } as const;
 export const HELP = `airtally — recalculate Airtally workbooks without Excel
 
 Usage:
-  airtally recalc BOOK.xlsx [--out OUT.xlsx] [--sheet NAME]... [--quiet]
+  airtally recalc BOOK.xlsx [--out OUT.xlsx] [--sheet NAME]... [--quiet | --csv] [--width N]
       Evaluate every formula (native and AIRTALLY.*) in dependency order and
       print each sheet as a table, then every error cell with its message.
+      Numbers print with their cells' number formats (0%, 0.0, #,##0, "$"0.00,
+      sections); dates, times, fractions and conditions print as General.
       --out      write a copy with the recalculated values cached in it
       --sheet    print only this sheet (repeatable; all are still computed)
       --quiet    print only the errors
+      --csv      print the sheets as CSV (RFC 4180, values as displayed; a
+                 "# Sheet: NAME" line before each when there are several);
+                 the summary, errors and caution go to stderr
+      --width N  cut text cells wider than N characters with "…" (default
+                 ${TERMINAL_CELL_WIDTH} on a terminal; when stdout is not a terminal, never cut)
   airtally eval FORMULA
       Evaluate one formula, e.g. airtally eval '=AIRTALLY.RATE("HE MCS11 2SS 80MHz")'
   airtally --help
@@ -57,6 +65,8 @@ export interface Io {
   err: (text: string) => void;
   /** Whether err is a terminal (progress lines only then); default: process.stderr.isTTY. */
   isTTY?: boolean;
+  /** Whether out is a terminal (text cells cut to a width only then); default: process.stdout.isTTY. */
+  outIsTTY?: boolean;
 }
 
 const defaultIo: Io = { out: (t) => process.stdout.write(t), err: (t) => process.stderr.write(t) };
@@ -66,7 +76,7 @@ function distDir(): string {
 }
 
 function formatResult(v: Value | Value[][]): string {
-  if (Array.isArray(v)) return v.map((row) => row.map(formatValue).join("\t")).join("\n");
+  if (Array.isArray(v)) return v.map((row) => row.map((v) => formatValue(v)).join("\t")).join("\n");
   if (isCellError(v)) return `${v.error}${v.message ? ` ${printable(v.message)}` : ""}`;
   return formatValue(v);
 }
@@ -76,6 +86,8 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
   let outFile: string | undefined;
   const only: string[] = [];
   let quiet = false;
+  let csv = false;
+  let width: number | undefined;
   for (let i = 0; i < args.length; i++) {
     const a = args[i];
     if (a === "--out" || a === "--sheet") {
@@ -83,12 +95,19 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
       if (!v || v.startsWith("--")) return usage(io, `${a} needs a value`);
       if (a === "--out") outFile = v;
       else only.push(v);
+    } else if (a === "--width") {
+      const v = args[++i];
+      if (!v || !/^\d{1,6}$/.test(v) || Number(v) < 1) return usage(io, "--width needs a whole number of characters, 1 or more");
+      width = Number(v);
     } else if (a === "--quiet") quiet = true;
+    else if (a === "--csv") csv = true;
     else if (a.startsWith("-")) return usage(io, `unknown option ${a}`);
     else if (!file) file = a;
     else return usage(io, `unexpected argument ${a}`);
   }
   if (!file) return usage(io, "recalc needs a workbook (.xlsx)");
+  if (csv && quiet) return usage(io, "--csv and --quiet exclude each other (--quiet prints no sheets)");
+  if (csv && width !== undefined) return usage(io, "--width applies to tables; CSV is never cut");
   if (!fs.existsSync(file)) {
     io.err(`airtally: no such file: ${printable(file)}\n`);
     return EXIT.usage;
@@ -102,9 +121,14 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
     progressEvery: 10000,
     onProgress: onTerminal ? (done, total) => io.err(`\rairtally: ${done}/${total} formulas`) : undefined,
   });
+  const formats = new CellFormats();
   let loaded: LoadedBook;
   try {
-    loaded = await loadPackage(file, { sheets: (names) => engine.addSheets(names), cell: (i, c) => engine.addCell(i, c) });
+    loaded = await loadPackage(file, {
+      sheets: (names) => engine.addSheets(names),
+      cell: (i, c) => engine.addCell(i, c),
+      numberFormat: quiet ? undefined : (i, row, col, code) => formats.set(i, row, col, code),
+    });
   } catch (e) {
     const why = e instanceof Error ? e.message : String(e);
     io.err(e instanceof RefusedInput ? `airtally: ${printable(file)}: ${printable(why)}\n` : `airtally: cannot read ${printable(file)} as an .xlsx workbook: ${printable(why)}\n`);
@@ -116,17 +140,26 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
     engine.finishLoading(loaded.book.names ?? [], loaded.book.tables ?? []);
     const result = engine.run();
     if (onTerminal && result.formulaCount >= 10000) io.err("\n");
-    if (!quiet) {
-      for (const s of result.sheets) {
-        if (only.length && !only.some((n) => n.toUpperCase() === s.name.toUpperCase())) continue;
-        printSheet(s.name, () => s.each(), io.out);
+    const shown = result.sheets.map((s, index) => ({ s, index })).filter(({ s }) => !only.length || only.some((n) => n.toUpperCase() === s.name.toUpperCase()));
+    if (csv) {
+      shown.forEach(({ s, index }, k) => {
+        if (shown.length > 1) io.out(`${k ? "\r\n" : ""}# Sheet: ${printable(s.name)}\r\n`);
+        printCsv(() => s.each(), io.out, (row, col) => formats.get(index, row, col));
+      });
+    } else if (!quiet) {
+      const outIsTTY = io.outIsTTY ?? (io === defaultIo && !!process.stdout.isTTY);
+      const cut = width ?? (outIsTTY ? TERMINAL_CELL_WIDTH : undefined);
+      for (const { s, index } of shown) {
+        printSheet(s.name, () => s.each(), io.out, { width: cut, formatOf: (row, col) => formats.get(index, row, col) });
         io.out("\n");
       }
     }
+    // With --csv, stdout is only CSV: the summary, the errors and the caution go to stderr.
+    const report = csv ? io.err : io.out;
     const errors = errorList(result);
-    io.out(`${result.formulaCount} formulas, ${result.errors.length} error cells, ${result.cycles.length} circular references\n`);
-    if (errors) io.out(errors + "\n");
-    io.out(CLI_CAUTION + "\n");
+    report(`${result.formulaCount} formulas, ${result.errors.length} error cells, ${result.cycles.length} circular references\n`);
+    if (errors) report(errors + "\n");
+    report(CLI_CAUTION + "\n");
     if (outFile) {
       try {
         await writePackage(loaded, result, outFile);

@@ -2,9 +2,9 @@
  * Display text of a number under a spreadsheet number format code, so the
  * command line can print a cell as a spreadsheet shows it (70% for 0.7 under
  * "0%", 3.1% for 0.031084 under "0.0%", 1,235 for 1234.5 under "#,##0").
- * Pure; not yet wired into the tables (src/cli/table.ts is being rewritten
- * separately): the caller passes the cell's numFmt (exceljs `cell.numFmt`)
- * and falls back to General where this returns null.
+ * Pure; src/cli/table.ts passes each cell's format code (read from the
+ * styles part by xlsxRead.ts) and falls back to General where this returns
+ * null.
  *
  * The rules are those of the number format codes of ECMA-376 Part 1
  * (SpreadsheetML numFmt formatCode), as spreadsheet programs apply them
@@ -27,7 +27,7 @@
  *   "0.00" shows 1.01, not the binary double's 1.00.
  *
  * Not supported (formatNumber returns null, so a caller can fall back to
- * General and say so): dates and times, conditions such as `[>=100]`,
+ * General and say so): a number under a text section (`@`), dates and times, conditions such as `[>=100]`,
  * fractions (`# ?/?`), engineering exponents (`##0.0E+0`).
  */
 
@@ -254,19 +254,40 @@ function applySection(x: number, s: Section): string {
  */
 export function formatNumber(value: number, code: string): string | null {
   if (!Number.isFinite(value)) return null;
+  const sections = parsedCode(code);
+  if (!sections) return null;
+  const numeric = sections.slice(0, 3);
+  const section = value === 0 && numeric.length >= 3 ? numeric[2] : value < 0 && numeric.length >= 2 ? numeric[1] : numeric[0];
+  // A text section (`@`, the Text format) does not format numbers: a number there shows as General, so the caller's.
+  if (section.hasText) return null;
+  if (section !== numeric[0]) return applySection(Math.abs(value), section);
+  const text = applySection(Math.abs(value), numeric[0]);
+  // One section: a minus sign, also when the digits shown round to zero ("-0", as spreadsheets following the
+  // code literally show it; LibreOffice drops that sign — test/cli/numberFormat.test.ts lists the difference).
+  return value < 0 ? "-" + text : text;
+}
+
+/**
+ * Parsed codes, remembered: a sheet repeats a handful of codes over many
+ * cells, and parsing is most of the cost of a formatted cell. Bounded (a
+ * workbook may hold many codes): the memo starts again when full.
+ */
+const MAX_PARSED_CODES = 1024;
+const parsed = new Map<string, Section[] | null>();
+
+/** The sections of a code, or null when the code uses something unsupported. */
+function parsedCode(code: string): Section[] | null {
+  let sections = parsed.get(code);
+  if (sections !== undefined) return sections;
   try {
-    const sections = splitSections(code.trim() === "" ? "General" : code).map(parseSection);
-    const numeric = sections.slice(0, 3);
-    if (value === 0 && numeric.length >= 3) return applySection(0, numeric[2]);
-    if (value < 0 && numeric.length >= 2) return applySection(-value, numeric[1]);
-    const text = applySection(Math.abs(value), numeric[0]);
-    // One section: a minus sign, also when the digits shown round to zero ("-0", as spreadsheets following the
-    // code literally show it; LibreOffice drops that sign — test/cli/numberFormat.test.ts lists the difference).
-    return value < 0 ? "-" + text : text;
+    sections = splitSections(code.trim() === "" ? "General" : code).map(parseSection);
   } catch (e) {
-    if (e instanceof Unsupported) return null;
-    throw e;
+    if (!(e instanceof Unsupported)) throw e;
+    sections = null;
   }
+  if (parsed.size >= MAX_PARSED_CODES) parsed.clear();
+  parsed.set(code, sections);
+  return sections;
 }
 
 /** Text under a format code: the text section's `@` replaced by the text; without one, the text itself. */

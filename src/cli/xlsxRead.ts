@@ -10,6 +10,7 @@
 import * as path from "path";
 import { SaxesParser, type SaxesTagPlain } from "saxes";
 import { parseAddress, parseArea, type Area } from "./address";
+import { cellFormatCodes, STYLE_LIMITS } from "./cellFormats";
 import type { InputBook, InputCell, InputName, InputTable, Value } from "./engine";
 import { openPackage, RefusedInput, type ZipPackage } from "./zip";
 
@@ -102,6 +103,33 @@ async function sharedStrings(pkg: ZipPackage, part: string | undefined): Promise
   return out;
 }
 
+/**
+ * The number format code of each cell-format index (the s= of a cell), from
+ * the styles part: numFmts (custom codes by id) and cellXfs (each entry's
+ * numFmtId). Entries past STYLE_LIMITS are not kept (their cells print as General).
+ */
+async function cellFormatsOf(pkg: ZipPackage, part: string | undefined): Promise<(string | undefined)[]> {
+  if (!part || !pkg.has(part)) return [];
+  const custom = new Map<number, string>();
+  const xfIds: number[] = [];
+  let inCellXfs = false;
+  await sax(pkg, part, (p) => {
+    p.on("opentag", (t) => {
+      const a = t.attributes as Record<string, string>;
+      const n = local(t.name);
+      if (n === "cellXfs") inCellXfs = true;
+      else if (n === "numFmt" && custom.size < STYLE_LIMITS.maxCellFormats && (a.formatCode ?? "").length <= STYLE_LIMITS.maxCodeLength) {
+        const id = Number(a.numFmtId);
+        if (Number.isInteger(id) && a.formatCode !== undefined) custom.set(id, a.formatCode);
+      } else if (n === "xf" && inCellXfs && xfIds.length < STYLE_LIMITS.maxCellFormats) xfIds.push(Number(a.numFmtId ?? 0));
+    });
+    p.on("closetag", (t) => {
+      if (local(t.name) === "cellXfs") inCellXfs = false;
+    });
+  });
+  return cellFormatCodes(xfIds, custom);
+}
+
 async function readTable(pkg: ZipPackage, part: string, sheet: string): Promise<InputTable | undefined> {
   let table: InputTable | undefined;
   await sax(pkg, part, (p) =>
@@ -148,13 +176,20 @@ function cellValue(type: string | undefined, text: string, strings: string[]): V
 }
 
 /** One sheet part, streamed: constants, formulas (shared ones point at their first cell), array ranges. */
-async function readSheet(pkg: ZipPackage, part: string, strings: string[], emit: (c: InputCell) => void): Promise<{ tableParts: string[] }> {
+async function readSheet(
+  pkg: ZipPackage,
+  part: string,
+  strings: string[],
+  emit: (c: InputCell) => void,
+  formats?: { codes: (string | undefined)[]; at: (row: number, col: number, code: string) => void },
+): Promise<{ tableParts: string[] }> {
   const tableParts: string[] = [];
   const shared = new Map<string, { formula: string; host: { row: number; col: number } }>();
   let row = 0;
   let col = 0;
   let inCell = false;
   let type: string | undefined;
+  let style: string | undefined;
   let text = "";
   let formula: string | undefined;
   let fAttrs: Record<string, string> | undefined;
@@ -179,6 +214,7 @@ async function readSheet(pkg: ZipPackage, part: string, strings: string[], emit:
           if (row > 1048576 || col > 16384 || row < 1) throw new RefusedInput(`refused: part ${part} has a cell at row ${row}, column ${col}, outside the sheet's 1048576 × 16384 grid`);
           inCell = true;
           type = a.t;
+          style = a.s;
           valueText = "";
           formulaText = "";
           formula = undefined;
@@ -212,6 +248,10 @@ async function readSheet(pkg: ZipPackage, part: string, strings: string[], emit:
       }
       if (n !== "c") return;
       inCell = false;
+      if (formats && style !== undefined) {
+        const code = formats.codes[Number(style)];
+        if (code !== undefined) formats.at(row, col, code); // also for an empty styled cell: a spill may fill it
+      }
       const cell: InputCell = { row, col };
       if (formula !== undefined) {
         const f = fAttrs ?? {};
@@ -241,6 +281,8 @@ async function readSheet(pkg: ZipPackage, part: string, strings: string[], emit:
 export interface CellSink {
   sheets(names: string[]): void;
   cell(sheetIndex: number, cell: InputCell): void;
+  /** When given, the styles part is read and each cell with a number format other than General is reported. */
+  numberFormat?(sheetIndex: number, row: number, col: number, code: string): void;
 }
 
 export async function loadPackage(file: string, sink?: CellSink): Promise<LoadedBook> {
@@ -276,6 +318,8 @@ export async function loadPackage(file: string, sink?: CellSink): Promise<Loaded
     });
     const sstPart = [...rels.values()].find((r) => /sharedStrings$/.test(r.type))?.target;
     const strings = await sharedStrings(pkg, sstPart);
+    const onFormat = sink?.numberFormat?.bind(sink);
+    const formatCodes = onFormat ? await cellFormatsOf(pkg, [...rels.values()].find((r) => /\/styles$/.test(r.type))?.target) : [];
     const book: InputBook = { sheets: [], names, tables: [] };
     const parts: SheetPart[] = [];
     const worksheets = sheetList.filter((s) => {
@@ -286,7 +330,8 @@ export async function loadPackage(file: string, sink?: CellSink): Promise<Loaded
     for (const [index, s] of worksheets.entries()) {
       const rel = rels.get(s.rid)!;
       const cells: InputCell[] = [];
-      const { tableParts } = await readSheet(pkg, rel.target, strings, sink ? (c) => sink.cell(index, c) : (c) => cells.push(c));
+      const formats = onFormat && formatCodes.length ? { codes: formatCodes, at: (row: number, col: number, code: string) => onFormat(index, row, col, code) } : undefined;
+      const { tableParts } = await readSheet(pkg, rel.target, strings, sink ? (c) => sink.cell(index, c) : (c) => cells.push(c), formats);
       book.sheets.push({ name: s.name, cells });
       parts.push({ name: s.name, part: rel.target });
       if (tableParts.length) {

@@ -50,6 +50,10 @@ describe("formatNumber by the format code rules", () => {
     expect([formatNumber(45000, "yyyy-mm-dd"), formatNumber(5, "[>=10]0;0.0"), formatNumber(0.5, "# ?/?")]).toEqual([null, null, null]);
   });
 
+  it("returns null for a number under a text section (@, the Text format), so it shows as General, not as '@'", () => {
+    expect([formatNumber(5.25, "@"), formatNumber(0, "@")]).toEqual([null, null]);
+  });
+
   it("returns null for a number that is not finite", () => {
     expect(formatNumber(Number.NaN, "0")).toBeNull();
   });
