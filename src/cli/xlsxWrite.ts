@@ -263,11 +263,13 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
     }
   };
   // Interrupted: remove the partial file, then exit as the signal would have (128 + its number).
+  // `on`, not `once`: a second signal (Ctrl-C reaches both bin/airtally.js, which forwards it, and
+  // this process) must not find the default action restored before the file is removed.
   const onSignal = (signal: NodeJS.Signals) => {
     cleanup();
     process.exit(128 + (os.constants.signals[signal] ?? 1));
   };
-  for (const s of STOP_SIGNALS) process.once(s, onSignal);
+  for (const s of STOP_SIGNALS) process.on(s, onSignal);
   try {
     const finished = new Promise<void>((resolve, reject) => {
       out.on("close", () => resolve());

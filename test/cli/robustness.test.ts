@@ -177,13 +177,18 @@ describe("--out never destroys the input or leaves a partial file", () => {
     expect([r.status, /cannot write .*nothing written/.test(r.stderr), fs.readdirSync(folder), sha(file)]).toEqual([2, true, [], before]);
   });
 
-  for (const signal of ["SIGINT", "SIGTERM"] as const) {
-    it(`leaves no output and no temporary file when ${signal} arrives during a long --out`, async () => {
+  const interruptions = [
+    ["SIGINT", false],
+    ["SIGTERM", false],
+    ["SIGINT", true], // as a terminal's Ctrl-C sends it: to the whole process group
+  ] as const;
+  for (const [signal, group] of interruptions) {
+    it(`leaves no output and no temporary file when ${signal} arrives during a long --out${group ? " (to the process group)" : ""}`, async () => {
       const big = path.join(dir, "long.xlsx");
       if (!fs.existsSync(big)) await numbersBook(big, 400_000);
-      const folder = fs.mkdtempSync(path.join(dir, `sig-${signal}-`));
+      const folder = fs.mkdtempSync(path.join(dir, `sig-${signal}-${group ? "group-" : ""}`));
       const before = sha(big);
-      const child = spawn(process.execPath, [BIN, "recalc", big, "--out", path.join(folder, "out.xlsx"), "--quiet"], { cwd: ROOT, stdio: ["ignore", "ignore", "pipe"] });
+      const child = spawn(process.execPath, [BIN, "recalc", big, "--out", path.join(folder, "out.xlsx"), "--quiet"], { cwd: ROOT, stdio: ["ignore", "ignore", "pipe"], detached: group });
       let stderr = "";
       child.stderr.on("data", (c: Buffer) => (stderr += c.toString()));
       const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) => child.on("exit", (code, sig) => resolve({ code, signal: sig })));
@@ -191,7 +196,8 @@ describe("--out never destroys the input or leaves a partial file", () => {
       const t0 = Date.now();
       while (fs.readdirSync(folder).length === 0 && Date.now() - t0 < 100_000 && child.exitCode === null) await new Promise((r) => setTimeout(r, 20));
       const writing = fs.readdirSync(folder).length > 0;
-      child.kill(signal);
+      if (group) process.kill(-child.pid!, signal);
+      else child.kill(signal);
       const end = await exited;
       // The process must really stop (not finish the file in an orphaned child): wait past the write's own length.
       await new Promise((r) => setTimeout(r, 1500));
