@@ -268,11 +268,15 @@ describe("odd inputs fail cleanly with the documented exit codes", () => {
     expect([r.code, /eval needs a formula after =/.test(r.err), /unexpected failure|TypeError/.test(r.err)]).toEqual([2, true, false]);
   });
 
-  it("LEN(REPT(\"a\",1E9)) is #VALUE! (text past 32 767 characters) within bounded memory", () => {
+  it("LEN(REPT(\"a\",1E9)) is #VALUE! (text past 32 767 characters) within bounded memory; so are TEXTJOIN and SUBSTITUTE past the cap", () => {
     const r = airtally(["eval", '=LEN(REPT("a",1E9))']);
     report("REPT 1E9", r);
     const ok = airtally(["eval", '=LEN(REPT("ab",16383))&"/"&ISERROR(REPT("ab",16384))']);
+    // 100 000 texts of 32 761 characters joined: refused when the running length passes the cap, not after a 3 GB join.
+    const joined = airtally(["eval", '=_xlfn.TEXTJOIN(",",TRUE,REPT("a",32760)&_xlfn.SEQUENCE(100000))']);
+    const grown = airtally(["eval", '=LEN(SUBSTITUTE(REPT("a",32767),"a","aaaa"))']);
     expect([r.code, r.out.startsWith("#VALUE!"), r.peakMB < 300, ok.out.trim()]).toEqual([1, true, true, "32766/TRUE"]);
+    expect([joined.out.startsWith("#VALUE!"), joined.peakMB < 400, grown.out.startsWith("#VALUE!"), grown.peakMB < 300]).toEqual([true, true, true, true]);
   });
 
   it("MAX, MIN, SUM and COUNTA over 200 000 cells are correct, no stack overflow", async () => {

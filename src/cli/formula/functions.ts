@@ -743,9 +743,11 @@ const TRANSPOSE: FunctionImpl = (ev, args, host, env) => {
 
 // ---------------------------------------------------------------- text
 
-function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean): string[] | CellError {
+/** The texts CONCAT/TEXTJOIN join; #VALUE! as soon as they pass the text limit (never joined into gigabytes). */
+function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean, name: string): string[] | CellError {
   const out: string[] = [];
   let bad: CellError | undefined;
+  let length = 0;
   for (const v of vals) {
     ev.each(v, (x) => {
       if (isCellError(x)) {
@@ -753,6 +755,11 @@ function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean): strin
         return false;
       }
       const t = toText(x) as string;
+      length += t.length;
+      if (length > MAX_TEXT) {
+        bad = VALUE(`${name}: the text is longer than ${MAX_TEXT} characters`);
+        return false;
+      }
       if (!(skipEmpty && t === "")) out.push(t);
     });
     if (bad) return bad;
@@ -762,7 +769,7 @@ function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean): strin
 
 const CONCAT: FunctionImpl = (ev, args, host, env) => {
   if (args.length < 1) return VALUE("CONCAT takes at least one argument");
-  const parts = textPieces(ev, evalArgs(ev, args, host, env), false);
+  const parts = textPieces(ev, evalArgs(ev, args, host, env), false, "CONCAT");
   if (isCellError(parts)) return parts;
   const s = parts.join("");
   return s.length > MAX_TEXT ? VALUE(`CONCAT: the text is longer than ${MAX_TEXT} characters`) : s;
@@ -774,7 +781,7 @@ const TEXTJOIN: FunctionImpl = (ev, args, host, env) => {
   if (isCellError(d)) return d;
   const skip = toBoolean(one(ev, args[1], host, env));
   if (isCellError(skip)) return skip;
-  const parts = textPieces(ev, evalArgs(ev, args.slice(2), host, env), skip);
+  const parts = textPieces(ev, evalArgs(ev, args.slice(2), host, env), skip, "TEXTJOIN");
   if (isCellError(parts)) return parts;
   const s = parts.join(toText(d) as string);
   return s.length > MAX_TEXT ? VALUE(`TEXTJOIN: the text is longer than ${MAX_TEXT} characters`) : s;
