@@ -255,7 +255,7 @@ describe("no raw control characters reach the terminal", () => {
     await writeXlsx(file, { sheets: [{ name: "S", cells: [{ ref: "A1", value: "HE " + "x".repeat(1_000_000) }, { ref: "B1", formula: "AIRTALLY.RATE(A1)" }] }] });
     const r = airtally(["recalc", file, "--quiet"]);
     const line = r.out.split("\n").find((l) => l.startsWith("S!B1:"))!;
-    // 300 characters: the cap in src/cli/table.ts (README "Exit codes" section states it).
+    // 300 characters: the cap in src/cli/table.ts (MAX_MESSAGE), stated in README.
     expect([r.code, line.length <= 300 + "S!B1: #VALUE! ".length, line.endsWith("…")]).toEqual([1, true, true]);
     const e = airtally(["eval", `=AIRTALLY.RATE(REPT("x",30000))`]);
     expect([e.code, e.out.split("\n")[0].length <= 300 + "#VALUE! ".length]).toEqual([1, true]);
