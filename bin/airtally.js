@@ -8,9 +8,15 @@
 "use strict";
 const HEAP_MB = 896;
 if (!process.execArgv.some((a) => a.startsWith("--max-old-space-size"))) {
-  const { spawnSync } = require("child_process");
-  const r = spawnSync(process.execPath, [`--max-old-space-size=${HEAP_MB}`, __filename, ...process.argv.slice(2)], { stdio: "inherit" });
-  process.exit(r.status ?? (r.signal ? 128 + (require("os").constants.signals[r.signal] ?? 1) : 2));
+  // Asynchronous, so that a signal sent to this process (kill PID, not only a
+  // terminal's Ctrl-C to the whole group) reaches the child, which removes its
+  // partial --out file; the exit code is then 128 + the signal's number.
+  const { spawn } = require("child_process");
+  const child = spawn(process.execPath, [`--max-old-space-size=${HEAP_MB}`, __filename, ...process.argv.slice(2)], { stdio: "inherit" });
+  for (const signal of ["SIGINT", "SIGTERM", "SIGHUP"]) process.on(signal, () => child.kill(signal));
+  child.on("error", () => process.exit(2));
+  child.on("exit", (code, signal) => process.exit(code ?? (signal ? 128 + (require("os").constants.signals[signal] ?? 1) : 2)));
+  return;
 }
 require("tsx/cjs/api").register();
 const { main } = require("../src/cli/main.ts");

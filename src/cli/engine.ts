@@ -841,8 +841,15 @@ export class Recalc implements Book {
       if (this.options.onProgress && done % every === 0) this.options.onProgress(done, total);
     }
     if (this.options.onProgress && total >= every) this.options.onProgress(total, total);
-    // A cycle found only while evaluating (through a spill) is reported like the others.
-    for (const n of this.nodes) if (isCellError(n.value) && n.value.error === CYCLE && n.value.message?.startsWith("circular reference through") && !this.cycles.some((c) => c.includes(nodeKey(n)))) this.cycles.push([nodeKey(n)]);
+    // A cycle found only while evaluating (through a spill) is reported like the others: one per cell it runs through.
+    const throughSpill = new Map<string, string[]>();
+    for (const n of this.nodes) {
+      const m = isCellError(n.value) && n.value.error === CYCLE ? n.value.message : undefined;
+      if (!m?.startsWith("circular reference through") || this.cycles.some((c) => c.includes(nodeKey(n)))) continue;
+      if (!throughSpill.has(m)) throughSpill.set(m, []);
+      throughSpill.get(m)!.push(nodeKey(n));
+    }
+    for (const members of throughSpill.values()) this.cycles.push(members);
     return this.result();
   }
 

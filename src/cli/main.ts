@@ -14,7 +14,7 @@ import { DEFAULT_DIST, loadAirtally, type AirtallyFunction } from "./bundle";
 import { CLI_CAUTION, speaksOfPower } from "./caution";
 import { evaluateFormula, isCellError, Recalc, type Value } from "./engine";
 import { CellFormats } from "./cellFormats";
-import { errorList, formatValue, printable, printCsv, printSheet, TERMINAL_CELL_WIDTH } from "./table";
+import { capped, errorList, formatValue, printable, printCsv, printSheet, TERMINAL_CELL_WIDTH } from "./table";
 import { loadPackage, type LoadedBook } from "./xlsxRead";
 import { sameFile, writePackage } from "./xlsxWrite";
 import { RefusedInput, ZIP_LIMITS } from "./zip";
@@ -51,6 +51,7 @@ Exit codes:
   2  usage error, unreadable or refused file (limits below), --out not writable
      or the input itself, or the add-in is not built
   3  the workbook has a circular reference (#CYCLE!, listed per cell)
+  128+signal  interrupted (130 Ctrl-C, 143 SIGTERM); a partial --out is removed
 
 Limits (a workbook past one is refused with exit code 2, naming the part):
   a part inflating past ${ZIP_LIMITS.maxPartBytes / 1048576} MiB, all parts past ${ZIP_LIMITS.maxTotalBytes / 1048576} MiB,
@@ -77,7 +78,7 @@ function distDir(): string {
 
 function formatResult(v: Value | Value[][]): string {
   if (Array.isArray(v)) return v.map((row) => row.map((v) => formatValue(v)).join("\t")).join("\n");
-  if (isCellError(v)) return `${v.error}${v.message ? ` ${printable(v.message)}` : ""}`;
+  if (isCellError(v)) return `${v.error}${v.message ? ` ${capped(printable(v.message))}` : ""}`;
   return formatValue(v);
 }
 
@@ -177,7 +178,7 @@ async function runRecalc(args: string[], io: Io, functions: Map<string, Airtally
 }
 
 function usage(io: Io, message: string): number {
-  io.err(`airtally: ${message}\n\n${HELP}`);
+  io.err(`airtally: ${printable(message)}\n\n${HELP}`); // the message may quote what was typed: escaped like any printed text
   return EXIT.usage;
 }
 
@@ -194,7 +195,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
     try {
       functions = loadAirtally(distDir());
     } catch (e) {
-      io.err(`airtally: ${e instanceof Error ? e.message : String(e)}\n`);
+      io.err(`airtally: ${printable(e instanceof Error ? e.message : String(e))}\n`);
       return EXIT.usage;
     }
     if (command === "recalc") return await runRecalc(rest, io, functions);
@@ -207,7 +208,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
     if (cells.some((c) => isCellError(c) && c.error === "#CYCLE!")) return EXIT.cycle;
     return cells.some(isCellError) ? EXIT.cellErrors : EXIT.ok;
   } catch (e) {
-    io.err(`airtally: unexpected failure: ${e instanceof Error ? e.stack ?? e.message : String(e)}\n`);
+    io.err(`airtally: unexpected failure: ${(e instanceof Error ? e.stack ?? e.message : String(e)).split("\n").map(printable).join("\n")}\n`);
     return EXIT.usage;
   }
 }

@@ -8,12 +8,8 @@ export const TERMINAL_CELL_WIDTH = 34;
 
 /** Text safe for a terminal: control characters shown as \xNN escapes, never sent raw. */
 export function printable(text: string): string {
-  return text.replace(/[\u0000-\u0008\u000B-\u001F\u007F-\u009F]/g, (c) => `\\x${c.charCodeAt(0).toString(16).padStart(2, "0")}`);
-}
-
-/** Text of one cell: as printable, and a tab or line break escaped too (it would break the table's row). */
-function cellText(text: string): string {
-  return printable(text).replace(/[\t\n]/g, (c) => `\\x${c.charCodeAt(0).toString(16).padStart(2, "0")}`);
+  // C0 (also tab and line feed: a cell must not start a fake table row), DEL, C1, and the bidirectional controls that reorder what is shown.
+  return text.replace(/[\u0000-\u001F\u007F-\u009F\u061C\u200E\u200F\u2028\u2029\u202A-\u202E\u2066-\u2069]/g, (c) => (c < "\u0100" ? `\\x${c.charCodeAt(0).toString(16).padStart(2, "0")}` : `\\u${c.charCodeAt(0).toString(16)}`));
 }
 
 /** General as the table shows it: integers whole, other numbers to 6 significant digits. */
@@ -32,9 +28,9 @@ function compactGeneral(v: number): string {
 export function formatValue(v: Value, code?: string): string {
   if (v === null) return "";
   if (isCellError(v)) return v.error;
-  if (typeof v === "number") return cellText((code !== undefined ? formatNumber(v, code) : null) ?? compactGeneral(v));
+  if (typeof v === "number") return printable((code !== undefined ? formatNumber(v, code) : null) ?? compactGeneral(v));
   if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
-  return cellText(code !== undefined ? formatText(v, code) : v);
+  return printable(code !== undefined ? formatText(v, code) : v);
 }
 
 /** Options of the printed table and of CSV. */
@@ -149,13 +145,13 @@ export function errorList(result: RecalcResult): string {
   const lines: string[] = [];
   for (const e of result.errors) {
     const v = e.value as { error: string; message?: string };
-    lines.push(`${printable(e.sheet)}!${e.address}: ${v.error}${v.message ? ` ${printable(capped(v.message))}` : ""}`);
+    lines.push(`${printable(e.sheet)}!${e.address}: ${v.error}${v.message ? ` ${capped(printable(v.message))}` : ""}`);
   }
   return lines.join("\n");
 }
 
 /** Messages are capped so a huge cell cannot flood the terminal. */
-const MAX_MESSAGE = 300;
-function capped(m: string): string {
+export const MAX_MESSAGE = 300;
+export function capped(m: string): string {
   return m.length > MAX_MESSAGE ? `${m.slice(0, MAX_MESSAGE - 1)}…` : m;
 }

@@ -12,6 +12,7 @@ import { SaxesParser, type SaxesTagPlain } from "saxes";
 import { parseAddress, parseArea, type Area } from "./address";
 import { cellFormatCodes, STYLE_LIMITS } from "./cellFormats";
 import type { InputBook, InputCell, InputName, InputTable, Value } from "./engine";
+import { decodeXstring } from "./xstring";
 import { openPackage, RefusedInput, type ZipPackage } from "./zip";
 
 export interface SheetPart {
@@ -97,7 +98,7 @@ async function sharedStrings(pkg: ZipPackage, part: string | undefined): Promise
       const n = local(t.name);
       if (n === "t") inT = false;
       else if (n === "rPh") phonetic--;
-      else if (n === "si") out.push(current);
+      else if (n === "si") out.push(decodeXstring(current));
     });
   });
   return out;
@@ -160,7 +161,7 @@ function cellValue(type: string | undefined, text: string, strings: string[]): V
     }
     case "str":
     case "inlineStr":
-      return text;
+      return decodeXstring(text);
     case "b":
       return text === "1" || text.toLowerCase() === "true";
     case "e":

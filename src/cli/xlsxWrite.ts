@@ -10,6 +10,7 @@
  * temporary file is removed and nothing at the output path changes.
  */
 import * as fs from "fs";
+import * as os from "os";
 import * as path from "path";
 import { Transform } from "stream";
 import { StringDecoder } from "string_decoder";
@@ -18,6 +19,7 @@ import { address, areaText, parseAddress } from "./address";
 import { isCellError, type RecalcResult, type Value } from "./engine";
 import { EXCEL_ERRORS } from "./formula/functions";
 import type { LoadedBook } from "./xlsxRead";
+import { encodeXstring } from "./xstring";
 import { RefusedInput } from "./zip";
 
 interface Patch {
@@ -29,10 +31,11 @@ interface Patch {
 }
 
 const COLS = 16384;
+const STOP_SIGNALS: NodeJS.Signals[] = ["SIGINT", "SIGTERM", "SIGHUP"];
 
 function escapeXml(s: string): string {
-  // XML 1.0 has no place for most control characters: drop them rather than write an unreadable part.
-  return s.replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, "").replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+  // XML 1.0 has no place for most control characters: they are kept as the package's _xHHHH_ escapes.
+  return encodeXstring(s).replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 }
 
 /** Cached value markup: the t attribute and the <v>/<is> element. No cached value for our #CYCLE! (not an Excel code). */
@@ -259,12 +262,14 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
       /* already gone */
     }
   };
-  const onSignal = () => {
+  // Interrupted: remove the partial file, then exit as the signal would have (128 + its number).
+  // `on`, not `once`: a second signal (Ctrl-C reaches both bin/airtally.js, which forwards it, and
+  // this process) must not find the default action restored before the file is removed.
+  const onSignal = (signal: NodeJS.Signals) => {
     cleanup();
-    process.exit(130);
+    process.exit(128 + (os.constants.signals[signal] ?? 1));
   };
-  process.once("SIGINT", onSignal);
-  process.once("SIGTERM", onSignal);
+  for (const s of STOP_SIGNALS) process.on(s, onSignal);
   try {
     const finished = new Promise<void>((resolve, reject) => {
       out.on("close", () => resolve());
@@ -307,8 +312,7 @@ export async function writePackage(loaded: LoadedBook, result: RecalcResult, out
     cleanup();
     throw e;
   } finally {
-    process.removeListener("SIGINT", onSignal);
-    process.removeListener("SIGTERM", onSignal);
+    for (const s of STOP_SIGNALS) process.removeListener(s, onSignal);
   }
 }
 

@@ -101,7 +101,7 @@ describe("recalc: errors stay in their cells", () => {
 });
 
 describe("recalc: forms the engine does not compute are error cells, never a guess", () => {
-  const forms = ["OFFSET(B1,1,0)", 'INDIRECT("B1")', "B1#", "S:T!B1", "SUM(B1:B2 B2:B3)", "SUM((B1,B2))", "LAMBDA(x,x+1)(2)", "CHAR(65)"];
+  const forms = ["OFFSET(B1,1,0)", 'INDIRECT("B1")', "B1#", "S:T!B1", "SUM(B1:B2 B2:B3)", "SUM((B1,B2))", "LAMBDA(x,x+1)(2)", 'CLEAN("a")'];
   for (const f of forms)
     it(`=${f} is an error cell with a message`, () => {
       const v = at(run({ A1: `=${f}`, B1: 1, B2: 2, B3: 3 }), "A1") as { error: string; message?: string };

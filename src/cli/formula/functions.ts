@@ -11,8 +11,9 @@
  */
 import * as formulajs from "@formulajs/formulajs";
 import type { Ast } from "./ast";
+import { char, code, rept, unichar, unicode } from "./characters";
 import { ceiling, ceilingMath, floor, floorMath, mround, roundDigits } from "./rounding";
-import { Evaluator, finite, lift1, type Env, type FunctionImpl, type Host } from "./evaluate";
+import { Evaluator, finite, lift1, MAX_TEXT, type Env, type FunctionImpl, type Host } from "./evaluate";
 import { compareValues, err, isCellError, isMatrix, isRef, NA, parseNumberText, toBoolean, toNumber, toText, VALUE, type CellError, type EvalValue, type Matrix, type Ref, type Value } from "./values";
 
 type Fns = Map<string, FunctionImpl>;
@@ -80,6 +81,7 @@ function scalarFn(name: string, kinds: Kind[], minArgs: number, impl: (...a: unk
       while (coerced.length && coerced[coerced.length - 1] === undefined) coerced.pop();
       try {
         const r = fromLibrary(impl(...coerced));
+        if (typeof r === "string" && r.length > MAX_TEXT) return VALUE(`${name}: the text would be ${r.length} characters; the limit is ${MAX_TEXT}`);
         return isMatrix(r) ? VALUE(`${name} returned an array`) : r;
       } catch (e) {
         return VALUE(`${name}: ${e instanceof Error ? e.message : String(e)}`);
@@ -741,9 +743,11 @@ const TRANSPOSE: FunctionImpl = (ev, args, host, env) => {
 
 // ---------------------------------------------------------------- text
 
-function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean): string[] | CellError {
+/** The texts CONCAT/TEXTJOIN join; #VALUE! as soon as they pass the text limit (never joined into gigabytes). */
+function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean, name: string): string[] | CellError {
   const out: string[] = [];
   let bad: CellError | undefined;
+  let length = 0;
   for (const v of vals) {
     ev.each(v, (x) => {
       if (isCellError(x)) {
@@ -751,6 +755,11 @@ function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean): strin
         return false;
       }
       const t = toText(x) as string;
+      length += t.length;
+      if (length > MAX_TEXT) {
+        bad = VALUE(`${name}: the text is longer than ${MAX_TEXT} characters`);
+        return false;
+      }
       if (!(skipEmpty && t === "")) out.push(t);
     });
     if (bad) return bad;
@@ -760,10 +769,10 @@ function textPieces(ev: Evaluator, vals: EvalValue[], skipEmpty: boolean): strin
 
 const CONCAT: FunctionImpl = (ev, args, host, env) => {
   if (args.length < 1) return VALUE("CONCAT takes at least one argument");
-  const parts = textPieces(ev, evalArgs(ev, args, host, env), false);
+  const parts = textPieces(ev, evalArgs(ev, args, host, env), false, "CONCAT");
   if (isCellError(parts)) return parts;
   const s = parts.join("");
-  return s.length > 32767 ? VALUE("CONCAT: the text is longer than 32 767 characters") : s;
+  return s.length > MAX_TEXT ? VALUE(`CONCAT: the text is longer than ${MAX_TEXT} characters`) : s;
 };
 
 const TEXTJOIN: FunctionImpl = (ev, args, host, env) => {
@@ -772,10 +781,10 @@ const TEXTJOIN: FunctionImpl = (ev, args, host, env) => {
   if (isCellError(d)) return d;
   const skip = toBoolean(one(ev, args[1], host, env));
   if (isCellError(skip)) return skip;
-  const parts = textPieces(ev, evalArgs(ev, args.slice(2), host, env), skip);
+  const parts = textPieces(ev, evalArgs(ev, args.slice(2), host, env), skip, "TEXTJOIN");
   if (isCellError(parts)) return parts;
   const s = parts.join(toText(d) as string);
-  return s.length > 32767 ? VALUE("TEXTJOIN: the text is longer than 32 767 characters") : s;
+  return s.length > MAX_TEXT ? VALUE(`TEXTJOIN: the text is longer than ${MAX_TEXT} characters`) : s;
 };
 
 // ---------------------------------------------------------------- the table
@@ -886,6 +895,11 @@ export function nativeFunctions(): Fns {
     ["FLOOR", ["n", "n"], 2, floor],
     ["FLOOR.MATH", ["n", "n", "n"], 1, floorMath],
     ["MROUND", ["n", "n"], 2, mround],
+    ["CHAR", ["n"], 1, char],
+    ["CODE", ["s"], 1, code],
+    ["UNICHAR", ["n"], 1, unichar],
+    ["UNICODE", ["s"], 1, unicode],
+    ["REPT", ["s", "n"], 2, rept],
     ["VALUE", ["s"], 1, (s: string) => parseNumberText(s) ?? VALUE(`VALUE: ${JSON.stringify(s.slice(0, 40))} is not a number`)],
   ];
   for (const [name, kinds, min, impl] of own) f.set(name, scalarFn(name, kinds, min, impl as (...a: unknown[]) => unknown));
@@ -893,9 +907,21 @@ export function nativeFunctions(): Fns {
   for (const [name, kinds, min, libName] of lib) {
     const impl = fj[libName];
     if (typeof impl !== "function") throw new Error(`@formulajs/formulajs has no ${libName}`);
-    f.set(name, scalarFn(name, kinds, min, impl));
+    f.set(name, scalarFn(name, kinds, min, name === "SUBSTITUTE" ? boundedSubstitute(impl) : impl));
   }
   return f;
+}
+
+/** SUBSTITUTE refused before it runs when its result would pass the text limit (a 32 767-fold growth would need gigabytes). */
+function boundedSubstitute(impl: (...a: unknown[]) => unknown): (...a: unknown[]) => unknown {
+  return (text, old, replacement, instance) => {
+    const [s, o, n] = [text, old, replacement].map((x) => String(x ?? ""));
+    if (o && n.length > o.length && instance === undefined) {
+      const count = s.split(o).length - 1;
+      if (s.length + count * (n.length - o.length) > MAX_TEXT) return VALUE(`SUBSTITUTE: the text would be longer than ${MAX_TEXT} characters`);
+    }
+    return impl(text, old, replacement, instance);
+  };
 }
 
 /**
