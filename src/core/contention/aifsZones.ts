@@ -61,7 +61,7 @@
  * their attempts. The whole is a fixed point x = G(x) in x = (p_c, R_c),
  * found by Anderson mixing of the last few sweeps (andersonNext): about 10
  * sweeps where plain iteration took 10–80. It stops when a sweep moves every
- * p_c and entry of R_c by less than 1e-7 (or at a work limit); one plain
+ * p_c and entry of R_c by less than 1e-6 (or at a work limit); one plain
  * sweep more then estimates the distance left from the map's contraction,
  * and the catalog refuses an estimate above 1e-4 (or a mix that did not get
  * there within the work limit). With one class EDCAMIX uses
@@ -94,7 +94,7 @@ export interface MixResult {
 
 const SWEEP_LIMIT = 200;
 /** The accelerated iteration stops when one more sweep moves p_c and the listener laws by less than this. */
-const MAP_TOLERANCE = 1e-7;
+const MAP_TOLERANCE = 1e-6;
 /**
  * The map's own precision: zones are followed until 1e-8 of the mass is left (HORIZON_EPSILON,
  * LISTENER_HORIZON), so two evaluations close to the fixed point differ by up to about this.
