@@ -697,7 +697,7 @@ function sweepOnce(
 }
 
 /** Iterates and images kept by the accelerator (Anderson mixing, memory ANDERSON_DEPTH). */
-const ANDERSON_DEPTH = 7;
+const ANDERSON_DEPTH = 3;
 
 function maxDistance(a: Float64Array, b: Float64Array): number {
   let d = 0;
@@ -854,13 +854,15 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   if (moved <= MAP_NOISE) {
     // How far the answer may still be from the fixed point: one plain step more from the image G(x)
     // gives the map's contraction ρ = |G(G(x)) − G(x)| ÷ |G(x) − x| near it, and the distance left
-    // ≈ step·ρ ÷ (1 − ρ). A step within the map's own precision (MAP_NOISE) is that precision.
+    // ≈ step·ρ ÷ (1 − ρ). A step within the map's own precision (MAP_NOISE), or one no shorter than the
+    // last (no contraction to see: two evaluations at the fixed point differ by their rounding of the
+    // horizons), is taken as the distance left itself.
     const image = new Float64Array((last as Sweep).image);
     const check = sweepOnce(channel, image, layout, space, fresh, delay, order, aifsMin, buffers, work);
     sweeps++;
     const step = maxDistance(check.image, image);
-    const rho = Math.min(RHO_MAX, moved > 0 ? step / moved : 0);
-    residual = step <= MAP_NOISE ? step : (step * rho) / (1 - rho);
+    const rho = Math.min(RHO_MAX, step / moved);
+    residual = step <= MAP_NOISE || step >= moved ? step : (step * rho) / (1 - rho);
     last = check;
   }
   const { outcomes, pi, image } = last as Sweep;
