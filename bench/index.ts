@@ -167,7 +167,10 @@ function saturate(): boolean {
   return okCold && okMemo;
 }
 
-/** EDCAMIX has no memo: every call solves the mix (VO + BE, 1–5 × 1–20 stations, packets 500–1499 bytes). */
+/**
+ * EDCAMIX has no memo: every call solves the mix (VO + BE, 1–2 × 4–20 stations, packets 500–1499 bytes: the
+ * answered range; 5 VO, or 2 VO beside 1–3 BE, are refused as outside the model's checked range).
+ */
 function edcamixCold(): boolean {
   const f = loadBundleHere().get("EDCAMIX");
   if (!f) {
@@ -175,8 +178,8 @@ function edcamixCold(): boolean {
     return true;
   }
   const link = "HE MCS7 1SS 20MHz GI0.8 5GHz";
-  const vo = (i: number) => 1 + (i % 5);
-  const be = (i: number) => 1 + (((i / 5) | 0) % 20);
+  const vo = (i: number) => 1 + (i % 2);
+  const be = (i: number) => 4 + (((i / 2) | 0) % 17);
   const bytes = (i: number) => 500 + (((i / 100) | 0) % 1000);
   const coreRate = rate((i) => edcaMix(link, [["VO"], ["BE"]], [[vo(i)], [be(i)]], bytes(i))[1].goodputMbps);
   const bundleRate = rate((i) => (f(link, [["VO"], ["BE"]], [[vo(i)], [be(i)]], bytes(i) + 1) as number[][])[1][2]);

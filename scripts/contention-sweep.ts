@@ -82,6 +82,7 @@ function mix(): void {
   for (const a of [1, 2, 5, 10, 20]) for (const b of [1, 3, 10, 20]) {
     mixes.push([{ access: "VO", stations: a }, { access: "BE", stations: b }]);
     mixes.push([{ access: "VI", stations: a }, { access: "BE", stations: b }]);
+    mixes.push([{ access: "BE", stations: a }, { access: "BK", stations: b }]);
   }
   for (const [a, b, c] of [[1, 1, 1], [2, 2, 5], [5, 5, 10], [1, 3, 20], [10, 10, 10], [20, 20, 20]]) {
     mixes.push([{ access: "VO", stations: a }, { access: "VI", stations: b }, { access: "BE", stations: c }]);

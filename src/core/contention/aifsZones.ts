@@ -58,10 +58,13 @@
  *   p_c   = collided attempts of class c ÷ attempts of class c
  * BlockAckReq recovery: a collider's next attempt is a BlockAckReq;
  * listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of
- * their attempts. The whole is iterated to a fixed point (at most 200
- * sweeps, until the distance left, estimated from the contraction between
- * sweeps, is below 1e-6 on every p_c and entry of R_c; or until a work limit,
- * after which the catalog refuses an estimate above 1e-4). With one class EDCAMIX uses
+ * their attempts. The whole is a fixed point x = G(x) in x = (p_c, R_c),
+ * found by Anderson mixing of the last few sweeps (andersonNext): about 10
+ * sweeps where plain iteration took 10–80. It stops when a sweep moves every
+ * p_c and entry of R_c by less than 1e-6 (or at a work limit); one plain
+ * sweep more then estimates the distance left from the map's contraction,
+ * and the catalog refuses an estimate above 1e-4 (or a mix that did not get
+ * there within the work limit). With one class EDCAMIX uses
  * saturation.ts, which SATURATE uses.
  */
 import type { ContentionChannel, ContentionClass } from "./parameters";
@@ -83,10 +86,20 @@ export interface MixResult {
   readonly contentionShare: number;
   /** Estimated distance left to the fixed point on p_c and the listener laws (a convergence check). */
   readonly residual: number;
+  /** Evaluations of the fixed-point map it took. */
+  readonly sweeps: number;
+  /** Work spent, in inner-loop steps (bounded by the work limit). */
+  readonly work: number;
 }
 
 const SWEEP_LIMIT = 200;
-const SWEEP_TOLERANCE = 1e-6;
+/** The accelerated iteration stops when one more sweep moves p_c and the listener laws by less than this. */
+const MAP_TOLERANCE = 1e-6;
+/**
+ * The map's own precision: zones are followed until 1e-8 of the mass is left (HORIZON_EPSILON,
+ * LISTENER_HORIZON), so two evaluations close to the fixed point differ by up to about this.
+ */
+const MAP_NOISE = 1e-6;
 /** The contraction rate assumed at most when estimating the distance left to the fixed point. */
 const RHO_MAX = 0.999;
 /** Zones are followed until the chance that nobody has sent falls below this. */
@@ -121,10 +134,12 @@ interface Group {
 const REACH_MAX = 24;
 /**
  * Work allowed for one solution, in inner-loop steps (at most about 10 ms on one idle
- * core, so that a loaded machine stays far from the 50 ms call guard; 1–2 VI + 20 BE need about 2e6 and are refused): the fixed point stops there, and if it has not settled to
- * RESIDUAL_ACCEPTED the catalog answers #N/A rather than an unsettled number.
+ * core, so that a loaded machine stays far from the 50 ms call guard; two-class mixes of
+ * VO or VI with BE take 0.6–1.2e6 and settle, BE beside BK with long windows on both sides
+ * does not): the fixed point stops there, and if it has not settled to RESIDUAL_ACCEPTED
+ * the catalog answers #N/A rather than an unsettled number.
  */
-const WORK_LIMIT = 1.2e6;
+const WORK_LIMIT = 1.5e6;
 export const RESIDUAL_ACCEPTED = 1e-4;
 
 interface Work {
@@ -165,13 +180,16 @@ function colliderLaw(c: ContentionClass, p: number): Law {
     w *= p;
   }
   w = 1;
+  // Each stage adds a uniform piece on 0…next−1: as steps of a difference array, summed once.
   for (let i = 0; i <= m; i++) {
     const next = i < m ? windowOf(c, i + 1) : windowOf(c, 0);
     const share = w / total / next;
-    for (let k = 0; k < next; k++) law[k] += share;
+    law[0] += share;
+    if (next < size) law[next] -= share;
     pieces.push({ width: next, weight: w / total });
     w *= p;
   }
+  for (let k = 1; k < size; k++) law[k] += law[k - 1];
   return lawOf(law, pieces);
 }
 
@@ -272,7 +290,7 @@ function runState(
   const last = Math.max(...groups.map((g) => g.offset + g.law.p.length));
   for (let t = first; t <= last && (alive > HORIZON_EPSILON || listenersWaiting(groups, aliveExcept, tails, t)); t++) {
     let allSilent = 1;
-    work.done += 8 * (G * G + 4 * G);
+    work.done += 16 * (G * G + 4 * G);
     for (let g = 0; g < G; g++) {
       const gr = groups[g];
       const j = t - gr.offset;
@@ -427,7 +445,10 @@ function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, wor
   // a·ρ^(r−R−1) with ρ = 1 − a/M, so its part of the inflow obeys T(k) = a·u[k + R + 1 + s] + ρ·T(k + 1)
   // (s = 1 for EDCA, 0 for DCF) and costs one step per counter instead of one per zone.
   const last = env.length - 1 - ENV_SHIFT;
-  const R = Math.min(REACH_MAX, last);
+  // Beyond the last zone the others may send in, nothing moves the counter: stop the inner loop there.
+  let reach = last;
+  while (reach > 0 && env[ENV_SHIFT + reach] === 0) reach--;
+  const R = Math.min(REACH_MAX, reach);
   let a = 0;
   let M = 0;
   if (R < last) {
@@ -583,6 +604,197 @@ export function edcaSaturation(channel: ContentionChannel): MixResult {
   };
 }
 
+/** One evaluation of the fixed-point map: the states' outcomes under (p, R), and the (p, R) they imply. */
+interface Sweep {
+  readonly outcomes: readonly StateOutcome[];
+  readonly pi: Float64Array;
+  /** The map's image, laid out as the iterate: p_c for every class, then every class's listener law. */
+  readonly image: Float64Array;
+}
+
+/** The iterate (p, R_0, R_1, …) as one vector, so that an accelerator can mix iterates. */
+interface Layout {
+  readonly C: number;
+  /** Start of class c's listener law in the vector. */
+  readonly start: readonly number[];
+  readonly size: readonly number[];
+  readonly length: number;
+}
+
+function layoutOf(classes: readonly ContentionClass[]): Layout {
+  const start: number[] = [];
+  const size: number[] = [];
+  let at = classes.length;
+  for (const c of classes) {
+    start.push(at);
+    size.push(c.cwMax + 1);
+    at += c.cwMax + 1;
+  }
+  return { C: classes.length, start, size, length: at };
+}
+
+function sweepOnce(
+  channel: ContentionChannel,
+  x: Float64Array,
+  layout: Layout,
+  space: StateSpace,
+  fresh: readonly Law[],
+  delay: readonly number[],
+  order: readonly number[],
+  aifsMin: number,
+  buffers: Float64Array[][],
+  work: Work,
+): Sweep {
+  const classes = channel.classes;
+  const C = classes.length;
+  const listener = classes.map((_, i) => x.subarray(layout.start[i], layout.start[i] + layout.size[i]));
+  const laws: Laws = {
+    fresh,
+    listener: listener.map((l) => lawOf(l, null)),
+    collider: classes.map((c, i) => colliderLaw(c, x[i])),
+    bar: classes.map((c, i) => barShare(c, x[i])),
+  };
+  const outcomes: StateOutcome[] = [];
+  // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
+  for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
+  for (let s = 0; s < space.count; s++) {
+    const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers[s]);
+    outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
+  }
+  const pi = stationary(outcomes.map((o) => o.next));
+  const image = new Float64Array(layout.length);
+  for (let c = 0; c < C; c++) {
+    let a = 0;
+    let k = 0;
+    outcomes.forEach((o, s) => {
+      a += pi[s] * o.attempts[c];
+      k += pi[s] * o.collided[c];
+    });
+    image[c] = a > 0 ? k / a : 0;
+  }
+  classes.forEach((c, i) => {
+    const entries = new Float64Array(c.cwMax + 1);
+    const env = new Float64Array(outcomes[0].env[i].length);
+    let weight = 0;
+    for (let s = 0; s < outcomes.length; s++) {
+      const o = outcomes[s];
+      const w = pi[s];
+      const r = o.residualDiff[i];
+      for (let k = 0; k < entries.length; k++) entries[k] += w * r[k];
+      const e = o.env[i];
+      for (let k = 0; k < env.length; k++) env[k] += w * e[k];
+      weight += w * o.envWeight[i];
+    }
+    if (weight <= 0) {
+      image.set(listener[i], layout.start[i]);
+      return;
+    }
+    for (let k = 1; k < entries.length; k++) entries[k] += entries[k - 1]; // prefix sums of the difference arrays
+    for (let k = 0; k < env.length; k++) env[k] /= weight;
+    image.set(listenerLaw(entries, env, c.countdown === "DCF", work), layout.start[i]);
+  });
+  return { outcomes, pi, image };
+}
+
+/** Iterates and images kept by the accelerator (Anderson mixing, memory ANDERSON_DEPTH). */
+const ANDERSON_DEPTH = 3;
+
+function maxDistance(a: Float64Array, b: Float64Array): number {
+  let d = 0;
+  for (let i = 0; i < a.length; i++) d = Math.max(d, Math.abs(a[i] - b[i]));
+  return d;
+}
+
+/** Keep a mixed iterate a valid one: p in [0, 1), every listener law non-negative and summing to 1. */
+function project(x: Float64Array, layout: Layout): void {
+  for (let c = 0; c < layout.C; c++) x[c] = Math.min(0.999999, Math.max(0, x[c]));
+  for (let c = 0; c < layout.C; c++) {
+    let total = 0;
+    const end = layout.start[c] + layout.size[c];
+    for (let k = layout.start[c]; k < end; k++) {
+      if (!(x[k] > 0)) x[k] = 0;
+      total += x[k];
+    }
+    if (total > 0) for (let k = layout.start[c]; k < end; k++) x[k] /= total;
+  }
+}
+
+/**
+ * Anderson mixing (D. G. Anderson, "Iterative procedures for nonlinear
+ * integral equations", J. ACM 12(4), 1965; in the form of H. F. Walker and
+ * P. Ni, "Anderson acceleration for fixed-point iterations", SIAM J. Numer.
+ * Anal. 49(4), 2011 — both from memory): the next iterate is the image
+ * g_k − ΔG·γ, γ minimising |f_k − ΔF·γ| over the last few residuals
+ * f = g − x. Solved by the normal equations, lightly regularised (the
+ * memory is at most ANDERSON_DEPTH).
+ */
+function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[]): Float64Array {
+  const k = gs.length - 1;
+  const m = Math.min(ANDERSON_DEPTH, k);
+  const n = gs[k].length;
+  const base = k - m;
+  const fk = fs[k];
+  // ΔF columns f_{i+1} − f_i over the memory, one array each (m at most ANDERSON_DEPTH).
+  const dF: Float64Array[] = [];
+  for (let i = 0; i < m; i++) {
+    const d = new Float64Array(n);
+    const f1 = fs[base + i + 1];
+    const f0 = fs[base + i];
+    for (let j = 0; j < n; j++) d[j] = f1[j] - f0[j];
+    dF.push(d);
+  }
+  const A = Array.from({ length: m }, () => new Float64Array(m));
+  const b = new Float64Array(m);
+  let scale = 0;
+  for (let i = 0; i < m; i++) {
+    const di = dF[i];
+    for (let l = i; l < m; l++) {
+      const dl = dF[l];
+      let s = 0;
+      for (let j = 0; j < n; j++) s += di[j] * dl[j];
+      A[i][l] = A[l][i] = s;
+    }
+    let s = 0;
+    for (let j = 0; j < n; j++) s += di[j] * fk[j];
+    b[i] = s;
+    scale = Math.max(scale, A[i][i]);
+  }
+  for (let i = 0; i < m; i++) A[i][i] += 1e-10 * scale + 1e-300;
+  const gamma = solveSmall(A, b);
+  const next = new Float64Array(gs[k]);
+  for (let i = 0; i < m; i++) {
+    const g1 = gs[base + i + 1];
+    const g0 = gs[base + i];
+    const w = gamma[i];
+    for (let j = 0; j < n; j++) next[j] -= w * (g1[j] - g0[j]);
+  }
+  return next;
+}
+
+/** Gaussian elimination with partial pivoting for the small normal equations. */
+function solveSmall(A: Float64Array[], b: Float64Array): Float64Array {
+  const m = b.length;
+  const M = A.map((row, i) => [...row, b[i]]);
+  for (let col = 0; col < m; col++) {
+    let best = col;
+    for (let r = col + 1; r < m; r++) if (Math.abs(M[r][col]) > Math.abs(M[best][col])) best = r;
+    [M[col], M[best]] = [M[best], M[col]];
+    const piv = M[col][col];
+    if (piv === 0) continue;
+    for (let r = col + 1; r < m; r++) {
+      const q = M[r][col] / piv;
+      for (let c = col; c <= m; c++) M[r][c] -= q * M[col][c];
+    }
+  }
+  const x = new Float64Array(m);
+  for (let r = m - 1; r >= 0; r--) {
+    let s = M[r][m];
+    for (let c = r + 1; c < m; c++) s -= M[r][c] * x[c];
+    x[r] = M[r][r] !== 0 ? s / M[r][r] : 0;
+  }
+  return x;
+}
+
 function solveDistinct(channel: ContentionChannel): MixResult {
   const classes = channel.classes;
   if (classes.length === 1) {
@@ -592,75 +804,68 @@ function solveDistinct(channel: ContentionChannel): MixResult {
       classes: [{ name: c.name, stations: c.stations, p: s.p, goodputMbps: s.goodputMbps, airtimeShare: 1 - s.contentionShare }],
       contentionShare: s.contentionShare,
       residual: 0,
+      sweeps: 0,
+      work: 0,
     };
   }
-  const C = classes.length;
   const space = stateSpace(classes);
   const minAifsn = Math.min(...classes.map((c) => c.aifsn));
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
   const order = classes.map((_, i) => i).sort((a, b) => classes[a].collisionPpduUs - classes[b].collisionPpduUs);
   const fresh = classes.map(freshLaw);
-  let listener: Float64Array[] = classes.map((c) => uniform(c.cwMax + 1, c.cwMin + 1));
-  let p = classes.map(() => 0);
-  let pi: Float64Array = new Float64Array(space.count);
-  let outcomes: StateOutcome[] = [];
-  let residual = Infinity;
-  let lastMoved = 0;
+  const layout = layoutOf(classes);
   const buffers = Array.from({ length: space.count }, () => classes.map((c) => new Float64Array(c.cwMax + 2)));
   const work: Work = { done: 0 };
-  for (let sweep = 0; sweep < SWEEP_LIMIT && !(residual <= SWEEP_TOLERANCE) && work.done < WORK_LIMIT; sweep++) {
-    const laws: Laws = {
-      fresh,
-      listener: listener.map((l) => lawOf(l, null)),
-      collider: classes.map((c, i) => colliderLaw(c, p[i])),
-      bar: classes.map((c, i) => barShare(c, p[i])),
-    };
-    outcomes = [];
-    // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
-    for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
-    for (let s = 0; s < space.count; s++) {
-      const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers[s]);
-      outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
+  // Start: p = 0 and every listener on its first window.
+  let x: Float64Array = new Float64Array(layout.length);
+  classes.forEach((c, i) => x.set(uniform(c.cwMax + 1, c.cwMin + 1), layout.start[i]));
+  const fs: Float64Array[] = [];
+  const gs: Float64Array[] = [];
+  let last: Sweep | null = null;
+  let moved = Infinity;
+  let best = Infinity;
+  let sweeps = 0;
+  for (let sweep = 0; sweep < SWEEP_LIMIT && work.done < WORK_LIMIT; sweep++) {
+    sweeps++;
+    last = sweepOnce(channel, x, layout, space, fresh, delay, order, aifsMin, buffers, work);
+    moved = maxDistance(last.image, x);
+    if (moved <= MAP_TOLERANCE) break;
+    const f = new Float64Array(x.length);
+    for (let j = 0; j < f.length; j++) f[j] = last.image[j] - x[j];
+    fs.push(f);
+    gs.push(last.image);
+    if (gs.length > ANDERSON_DEPTH + 1) {
+      fs.shift();
+      gs.shift();
     }
-    pi = stationary(outcomes.map((o) => o.next));
-    let moved = 0;
-    const nextP = classes.map((_, c) => {
-      let a = 0;
-      let k = 0;
-      outcomes.forEach((o, s) => {
-        a += pi[s] * o.attempts[c];
-        k += pi[s] * o.collided[c];
-      });
-      return a > 0 ? k / a : 0;
-    });
-    const nextListener = classes.map((c, i) => {
-      const entries = new Float64Array(c.cwMax + 1);
-      const env = new Float64Array(outcomes[0].env[i].length);
-      let weight = 0;
-      outcomes.forEach((o, s) => {
-        const r = o.residualDiff[i];
-        for (let k = 0; k < entries.length; k++) entries[k] += pi[s] * r[k];
-        const e = o.env[i];
-        for (let k = 0; k < env.length; k++) env[k] += pi[s] * e[k];
-        weight += pi[s] * o.envWeight[i];
-      });
-      if (weight <= 0) return listener[i];
-      for (let k = 1; k < entries.length; k++) entries[k] += entries[k - 1]; // prefix sums of the difference arrays
-      for (let k = 0; k < env.length; k++) env[k] /= weight;
-      const law = listenerLaw(entries, env, c.countdown === "DCF", work);
-      for (let k = 0; k < law.length; k++) moved = Math.max(moved, Math.abs(law[k] - listener[i][k]));
-      return law;
-    });
-    for (let c = 0; c < C; c++) moved = Math.max(moved, Math.abs(nextP[c] - p[c]));
-    p = nextP;
-    listener = nextListener;
-    // A slow fixed point moves little per sweep while still far off: estimate the distance left from the
-    // contraction seen between sweeps, |x_k − x*| ≈ moved·ρ ÷ (1 − ρ), ρ = moved_k ÷ moved_(k−1).
-    const rho = lastMoved > 0 ? Math.min(RHO_MAX, moved / lastMoved) : RHO_MAX;
-    residual = sweep < 2 ? Infinity : (moved * rho) / (1 - rho);
-    lastMoved = moved;
+    if (moved > 10 * best && gs.length > 2) {
+      // The mixed iterate went astray: drop the memory and take the plain step.
+      fs.splice(0, fs.length - 1);
+      gs.splice(0, gs.length - 1);
+    }
+    best = Math.min(best, moved);
+    // Mixing costs about (m²/2 + 3m) passes over the iterate.
+    if (gs.length >= 2) work.done += (ANDERSON_DEPTH * (ANDERSON_DEPTH + 6) * layout.length) / 2;
+    x = gs.length < 2 ? new Float64Array(last.image) : andersonNext(gs, fs);
+    project(x, layout);
   }
+  let residual = Infinity;
+  if (moved <= MAP_NOISE) {
+    // How far the answer may still be from the fixed point: one plain step more from the image G(x)
+    // gives the map's contraction ρ = |G(G(x)) − G(x)| ÷ |G(x) − x| near it, and the distance left
+    // ≈ step·ρ ÷ (1 − ρ). A step within the map's own precision (MAP_NOISE), or one no shorter than the
+    // last (no contraction to see: two evaluations at the fixed point differ by their rounding of the
+    // horizons), is taken as the distance left itself.
+    const image = new Float64Array((last as Sweep).image);
+    const check = sweepOnce(channel, image, layout, space, fresh, delay, order, aifsMin, buffers, work);
+    sweeps++;
+    const step = maxDistance(check.image, image);
+    const rho = Math.min(RHO_MAX, step / moved);
+    residual = step <= MAP_NOISE || step >= moved ? step : (step * rho) / (1 - rho);
+    last = check;
+  }
+  const { outcomes, pi, image } = last as Sweep;
   let cycleUs = 0;
   outcomes.forEach((o, s) => (cycleUs += pi[s] * o.cycleUs));
   const results = classes.map((c, i) => {
@@ -669,10 +874,10 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     return {
       name: c.name,
       stations: c.stations,
-      p: p[i],
+      p: image[i],
       goodputMbps: (successes * c.payloadBits) / cycleUs,
       airtimeShare: (successes * (c.successUs + aifsMin)) / cycleUs,
     };
   });
-  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual };
+  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done };
 }

@@ -161,7 +161,7 @@ describe("EDCAMIX", () => {
   });
 
   it("keeps the airtime shares within 1", () => {
-    const total = edcaMix(HE, [["VO", "VI", "BE", "BK"]], [[1, 2, 4, 2]], 1500).reduce((s, r) => s + r.airtimeShare, 0);
+    const total = edcaMix(HE, [["VO", "VI", "BE", "BK"]], [[1, 1, 1, 1]], 1500).reduce((s, r) => s + r.airtimeShare, 0);
     expect(total).toBeLessThan(1);
   });
 
@@ -182,6 +182,19 @@ describe("EDCAMIX", () => {
   // Long windows on both sides drain slowly: the fixed point is stopped by its work limit and, unsettled, refused.
   it("answers #N/A naming counts when the mix does not settle within the model's work limit", () => {
     expect(() => edcaMix(HE, "BE, BK", "20, 12", 1500)).toThrow(/^counts: .*did not settle/);
+  });
+  // Beyond the mix model's checked range (scripts/contention-sweep.ts against the seeded simulator, seeds 1000-1001,
+  // 100 000 busy periods each): BE beside 5 VO, simulator 0.18 Mb/s at p 0.78, model 0.11 at p 0.83 (-40 %).
+  it("answers #N/A naming counts for a deferred class that collides on more than 75 % of its attempts", () => {
+    expect(() => edcaMix(HE, "VO, BE", "5, 1", 1500)).toThrow(/^counts: the 1 BE stations wait a longer AIFS and collide on 83 %/);
+    expect(() => edcaMix(HE, "VI, BE", "10, 3", 1500)).toThrow(/^counts: the 3 BE stations wait a longer AIFS/);
+  });
+  // 2 VO + 1 BE: simulator BE 2.42 Mb/s, model 2.78 (+15 %); 2 VO + 3 BE: 5.56 against 6.14 (+11 %).
+  it("answers #N/A naming counts for two or more VO stations beside three or fewer deferred stations", () => {
+    expect(() => edcaMix(HE, "VO, BE", "2, 1", 1500)).toThrow(/^counts: 2 VO stations with a first window of 4 slots/);
+    expect(() => edcaMix(HE, "VO, BE", "2, 3", 1500)).toThrow(/^counts: 2 VO stations/);
+    expect(edcaMix(HE, "VO, BE", "1, 3", 1500)[1].goodputMbps).toBeGreaterThan(0);
+    expect(edcaMix(HE, "VO, BE", "2, 8", 1500)[1].goodputMbps).toBeGreaterThan(0);
   });
   it("refuses BAR when a class is DCF", () => valueError(() => edcaMix(HE, "VO, DCF", "1, 1", 1500, "auto", "none", "BAR"), "mac_options"));
 
