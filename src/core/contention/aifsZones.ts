@@ -115,8 +115,8 @@ interface Law {
   readonly pieces: readonly { readonly width: number; readonly weight: number }[] | null;
 }
 
-function lawOf(p: Float64Array, pieces: Law["pieces"]): Law {
-  return { p, tails: tailsOf(p), pieces };
+function lawOf(p: Float64Array, pieces: Law["pieces"], tails?: Float64Array): Law {
+  return { p, tails: tailsOf(p, tails), pieces };
 }
 
 interface Group {
@@ -168,9 +168,9 @@ function freshLaw(c: ContentionClass): Law {
 }
 
 /** The counter law of a collider of class c: the next stage's window, stages weighted by p^i. */
-function colliderLaw(c: ContentionClass, p: number): Law {
+function colliderLaw(c: ContentionClass, p: number, scratch?: { readonly law: Float64Array; readonly tails: Float64Array }): Law {
   const size = c.cwMax + 1;
-  const law = new Float64Array(size);
+  const law = scratch ? scratch.law.fill(0) : new Float64Array(size);
   const pieces: { width: number; weight: number }[] = [];
   const m = c.retryLimit - 1;
   let w = 1;
@@ -190,7 +190,7 @@ function colliderLaw(c: ContentionClass, p: number): Law {
     w *= p;
   }
   for (let k = 1; k < size; k++) law[k] += law[k - 1];
-  return lawOf(law, pieces);
+  return lawOf(law, pieces, scratch?.tails);
 }
 
 function barShare(c: ContentionClass, p: number): number {
@@ -437,9 +437,8 @@ function listenersWaiting(groups: readonly Group[], aliveExcept: Float64Array, t
  * r = 0) leaving k unchanged. A listener with counter j sends at r = j and
  * leaves. Computed from the top counter down; R_c = U ÷ Σ U.
  */
-function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, work: Work): Float64Array {
+function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, work: Work, u: Float64Array = new Float64Array(entries.length)): Float64Array {
   const K = entries.length;
-  const u = new Float64Array(K);
   // Zones r = 0 … R of the environment are followed one by one; beyond R (the others silent for many
   // zones) the environment is taken as geometric with the same first term a and tail mass M,
   // a·ρ^(r−R−1) with ρ = 1 − a/M, so its part of the inflow obeys T(k) = a·u[k + R + 1 + s] + ρ·T(k + 1)
@@ -469,11 +468,9 @@ function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, wor
     const far = k + R + 1 + shift;
     tail = (far < K ? a * u[far] : 0) + rho * tail;
     if (!dcf || k >= 1) {
-      for (let r = dcf ? 1 : 0; r <= R; r++) {
-        const j = k + r + shift;
-        if (j >= K) break;
-        inflow += u[j] * env[ENV_SHIFT + r];
-      }
+      // The zones r whose source counter j = k + r + shift lies inside the table, bounds taken once.
+      const rTop = Math.min(R, K - 1 - k - shift);
+      for (let r = dcf ? 1 : 0, j = k + r + shift, e = ENV_SHIFT + r; r <= rTop; r++, j++, e++) inflow += u[j] * env[e];
       inflow += tail;
     }
     u[k] = inflow / stay;
@@ -489,9 +486,9 @@ function loneOf(n: number, h: number): number {
   return n * h * Math.pow(1 - h, n - 1);
 }
 
-/** T(j) = Σ_{k ≥ j} law[k], j = 0 … law.length. */
-function tailsOf(law: Float64Array): Float64Array {
-  const t = new Float64Array(law.length + 1);
+/** T(j) = Σ_{k ≥ j} law[k], j = 0 … law.length (into `t` when given, a buffer of law.length + 1 reused across sweeps). */
+function tailsOf(law: Float64Array, t: Float64Array = new Float64Array(law.length + 1)): Float64Array {
+  t[law.length] = 0;
   for (let k = law.length - 1; k >= 0; k--) t[k] = t[k + 1] + law[k];
   return t;
 }
@@ -633,6 +630,24 @@ function layoutOf(classes: readonly ContentionClass[]): Layout {
   return { C: classes.length, start, size, length: at };
 }
 
+/** Arrays of CWmax + 1 or so entries per class that one sweep fills and the next overwrites (no allocation per sweep). */
+interface Buffers {
+  /** Per state and class: the residual difference arrays of runState. */
+  readonly residual: readonly Float64Array[][];
+  readonly collider: readonly { readonly law: Float64Array; readonly tails: Float64Array }[];
+  readonly listenerTails: readonly Float64Array[];
+  readonly entries: readonly Float64Array[];
+}
+
+function buffersOf(classes: readonly ContentionClass[], space: StateSpace): Buffers {
+  return {
+    residual: Array.from({ length: space.count }, () => classes.map((c) => new Float64Array(c.cwMax + 2))),
+    collider: classes.map((c) => ({ law: new Float64Array(c.cwMax + 1), tails: new Float64Array(c.cwMax + 2) })),
+    listenerTails: classes.map((c) => new Float64Array(c.cwMax + 2)),
+    entries: classes.map((c) => new Float64Array(c.cwMax + 1)),
+  };
+}
+
 function sweepOnce(
   channel: ContentionChannel,
   x: Float64Array,
@@ -642,7 +657,7 @@ function sweepOnce(
   delay: readonly number[],
   order: readonly number[],
   aifsMin: number,
-  buffers: Float64Array[][],
+  buffers: Buffers,
   work: Work,
 ): Sweep {
   const classes = channel.classes;
@@ -650,15 +665,15 @@ function sweepOnce(
   const listener = classes.map((_, i) => x.subarray(layout.start[i], layout.start[i] + layout.size[i]));
   const laws: Laws = {
     fresh,
-    listener: listener.map((l) => lawOf(l, null)),
-    collider: classes.map((c, i) => colliderLaw(c, x[i])),
+    listener: listener.map((l, i) => lawOf(l, null, buffers.listenerTails[i])),
+    collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i])),
     bar: classes.map((c, i) => barShare(c, x[i])),
   };
   const outcomes: StateOutcome[] = [];
   // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
   for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
   for (let s = 0; s < space.count; s++) {
-    const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers[s]);
+    const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers.residual[s]);
     outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
   }
   const pi = stationary(outcomes.map((o) => o.next));
@@ -672,8 +687,9 @@ function sweepOnce(
     });
     image[c] = a > 0 ? k / a : 0;
   }
-  classes.forEach((c, i) => {
-    const entries = new Float64Array(c.cwMax + 1);
+  for (let i = 0; i < C; i++) {
+    const c = classes[i];
+    const entries = buffers.entries[i].fill(0);
     const env = new Float64Array(outcomes[0].env[i].length);
     let weight = 0;
     for (let s = 0; s < outcomes.length; s++) {
@@ -687,12 +703,12 @@ function sweepOnce(
     }
     if (weight <= 0) {
       image.set(listener[i], layout.start[i]);
-      return;
+      continue;
     }
     for (let k = 1; k < entries.length; k++) entries[k] += entries[k - 1]; // prefix sums of the difference arrays
     for (let k = 0; k < env.length; k++) env[k] /= weight;
-    image.set(listenerLaw(entries, env, c.countdown === "DCF", work), layout.start[i]);
-  });
+    listenerLaw(entries, env, c.countdown === "DCF", work, image.subarray(layout.start[i], layout.start[i] + layout.size[i]));
+  }
   return { outcomes, pi, image };
 }
 
@@ -734,39 +750,34 @@ function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[]):
   const n = gs[k].length;
   const base = k - m;
   const fk = fs[k];
-  // ΔF columns f_{i+1} − f_i over the memory, one array each (m at most ANDERSON_DEPTH).
-  const dF: Float64Array[] = [];
-  for (let i = 0; i < m; i++) {
-    const d = new Float64Array(n);
-    const f1 = fs[base + i + 1];
-    const f0 = fs[base + i];
-    for (let j = 0; j < n; j++) d[j] = f1[j] - f0[j];
-    dF.push(d);
-  }
+  // One pass over the iterate for the normal equations: the ΔF columns f_{i+1} − f_i (m at most
+  // ANDERSON_DEPTH) are formed entry by entry, each sum still taken in entry order.
+  const cols = fs.slice(base, k + 1);
   const A = Array.from({ length: m }, () => new Float64Array(m));
   const b = new Float64Array(m);
+  const d = new Float64Array(m);
+  for (let j = 0; j < n; j++) {
+    for (let i = 0; i < m; i++) d[i] = cols[i + 1][j] - cols[i][j];
+    for (let i = 0; i < m; i++) {
+      const di = d[i];
+      const Ai = A[i];
+      for (let l = i; l < m; l++) Ai[l] += di * d[l];
+      b[i] += di * fk[j];
+    }
+  }
   let scale = 0;
   for (let i = 0; i < m; i++) {
-    const di = dF[i];
-    for (let l = i; l < m; l++) {
-      const dl = dF[l];
-      let s = 0;
-      for (let j = 0; j < n; j++) s += di[j] * dl[j];
-      A[i][l] = A[l][i] = s;
-    }
-    let s = 0;
-    for (let j = 0; j < n; j++) s += di[j] * fk[j];
-    b[i] = s;
+    for (let l = 0; l < i; l++) A[i][l] = A[l][i];
     scale = Math.max(scale, A[i][i]);
   }
   for (let i = 0; i < m; i++) A[i][i] += 1e-10 * scale + 1e-300;
   const gamma = solveSmall(A, b);
   const next = new Float64Array(gs[k]);
-  for (let i = 0; i < m; i++) {
-    const g1 = gs[base + i + 1];
-    const g0 = gs[base + i];
-    const w = gamma[i];
-    for (let j = 0; j < n; j++) next[j] -= w * (g1[j] - g0[j]);
+  const g = gs.slice(base, k + 1);
+  for (let j = 0; j < n; j++) {
+    let v = next[j];
+    for (let i = 0; i < m; i++) v -= gamma[i] * (g[i + 1][j] - g[i][j]);
+    next[j] = v;
   }
   return next;
 }
@@ -815,7 +826,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   const order = classes.map((_, i) => i).sort((a, b) => classes[a].collisionPpduUs - classes[b].collisionPpduUs);
   const fresh = classes.map(freshLaw);
   const layout = layoutOf(classes);
-  const buffers = Array.from({ length: space.count }, () => classes.map((c) => new Float64Array(c.cwMax + 2)));
+  const buffers = buffersOf(classes, space);
   const work: Work = { done: 0 };
   // Start: p = 0 and every listener on its first window.
   let x: Float64Array = new Float64Array(layout.length);
