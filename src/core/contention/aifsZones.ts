@@ -204,27 +204,30 @@ function barShare(c: ContentionClass, p: number): number {
   return 1 - 1 / total;
 }
 
-/** The states after a busy period: a success of class a (index a), or a collision of the pair (a, b). */
+/**
+ * The states after a busy period: a success of class a (index a), or a
+ * collision among the classes of a set S (a bit mask; one class alone needs
+ * two of its stations), state index C + position in `masks`.
+ */
 interface StateSpace {
   readonly count: number;
-  /** Collision pair per state index ≥ C. */
-  readonly pairs: readonly (readonly [number, number])[];
-  /** pairIndex[a][b] = state index of the collision (a, b). */
-  readonly pairIndex: readonly (readonly number[])[];
+  /** The class set of each collision state, state index C + q. */
+  readonly masks: readonly number[];
+  /** The longest colliding PPDU of each collision state's set, and that class (its timeout follows it). */
+  readonly longest: readonly number[];
 }
 
 function stateSpace(classes: readonly ContentionClass[]): StateSpace {
   const C = classes.length;
-  const pairs: [number, number][] = [];
-  const pairIndex = classes.map(() => classes.map(() => -1));
-  for (let a = 0; a < C; a++) {
-    for (let b = a; b < C; b++) {
-      if (a === b && classes[a].stations < 2) continue;
-      pairIndex[a][b] = pairIndex[b][a] = C + pairs.length;
-      pairs.push([a, b]);
-    }
+  const masks: number[] = [];
+  const longest: number[] = [];
+  for (let mask = 1; mask < 1 << C; mask++) {
+    const members = classes.map((_, i) => i).filter((i) => mask & (1 << i));
+    if (members.length === 1 && classes[members[0]].stations < 2) continue;
+    masks.push(mask);
+    longest.push(members.reduce((a, b) => (classes[b].collisionPpduUs > classes[a].collisionPpduUs ? b : a)));
   }
-  return { count: C + pairs.length, pairs, pairIndex };
+  return { count: C + masks.length, masks, longest };
 }
 
 /** What one state leads to: the next state's law, cycle time, successes, attempts and listener residuals. */
@@ -245,6 +248,8 @@ interface StateOutcome {
    */
   readonly env: Float64Array[];
   readonly envWeight: Float64Array;
+  /** Per collision state q and class c (index q·C + c): P(that collision) × E[colliders of class c in it]. */
+  readonly colliders: Float64Array;
 }
 
 /**
@@ -282,8 +287,10 @@ function runState(
   const h = new Float64Array(G);
   const silentG = new Float64Array(G); // (1 − h_g)^{n_g}
   const loneG = new Float64Array(G); // n_g h_g (1 − h_g)^{n_g − 1}
-  const classTx = new Float64Array(C); // P(no station of class c sends at t | silent before)
-  const pairMass = new Float64Array(space.pairs.length);
+  const silentC = new Float64Array(C); // P(no station of class c sends at t | silent before)
+  const loneC = new Float64Array(C); // P(exactly one station of class c sends at t | silent before)
+  const meanC = new Float64Array(C); // E[stations of class c that send at t | silent before]
+  const colliders = new Float64Array(space.masks.length * C);
   let alive = 1; // A(t)
   let cycle = 0;
   const first = Math.min(...groups.map((g) => g.offset));
@@ -320,47 +327,38 @@ function runState(
         attempts[c] += tries;
         collided[c] += tries - alone;
       }
-      const collisions = Math.max(0, busy - successAll);
-      // Collisions by their longest member (classes in order of collision length).
-      classTx.fill(1);
-      for (let g = 0; g < G; g++) classTx[groups[g].cls] *= silentG[g];
-      let longerSilent = 1;
-      for (let i = C - 1; i >= 0; i--) {
-        const c = order[i];
-        let lone = 0;
-        for (let g = 0; g < G; g++) if (groups[g].cls === c && h[g] > 0) lone += loneG[g] * othersOf(silentG, allSilent, g);
-        const longest = Math.max(0, alive * (longerSilent * (1 - classTx[c]) - lone));
-        cycle += longest * (zoneUs + classes[c].collisionPpduUs);
-        longerSilent *= classTx[c];
+      // Collisions by the set S of classes that take part: Π_{c∈S} P(some of c send) · Π_{c∉S} P(none of c),
+      // less the lone sender when S is one class; the expected colliders of each class in it go with the
+      // state (a collision of three voice stations leaves three colliders, not two).
+      silentC.fill(1);
+      meanC.fill(0);
+      for (let g = 0; g < G; g++) {
+        silentC[groups[g].cls] *= silentG[g];
+        meanC[groups[g].cls] += groups[g].count * h[g];
       }
-      // Which pair collided: exactly two senders, exactly; three or more shared out in proportion.
-      pairMass.fill(0);
-      let pairs = 0;
-      for (let g1 = 0; g1 < G; g1++) {
-        if (h[g1] === 0) continue;
-        const n1 = groups[g1].count;
-        const rest1 = othersOf(silentG, allSilent, g1);
-        if (n1 >= 2) {
-          const two = ((n1 * (n1 - 1)) / 2) * h[g1] * h[g1] * Math.pow(1 - h[g1], n1 - 2) * rest1;
-          const idx = space.pairIndex[groups[g1].cls][groups[g1].cls] - C;
-          if (idx >= 0) {
-            pairMass[idx] += two;
-            pairs += two;
-          }
+      loneC.fill(0);
+      for (let g = 0; g < G; g++) if (h[g] > 0) loneC[groups[g].cls] += loneG[g] * sameClassOthers(groups, silentG, g);
+      for (let q = 0; q < space.masks.length; q++) {
+        const mask = space.masks[q];
+        let m = 1;
+        let single = -1;
+        for (let c = 0; c < C; c++) m *= mask & (1 << c) ? 1 - silentC[c] : silentC[c];
+        if ((mask & (mask - 1)) === 0) {
+          single = 31 - Math.clz32(mask);
+          let rest = 1;
+          for (let c = 0; c < C; c++) if (c !== single) rest *= silentC[c];
+          m -= loneC[single] * rest;
         }
-        for (let g2 = g1 + 1; g2 < G; g2++) {
-          if (h[g2] === 0) continue;
-          const rest = silentG[g2] > 0 ? rest1 / silentG[g2] : prodExcept2(silentG, g1, g2);
-          const two = loneG[g1] * loneG[g2] * rest;
-          const idx = space.pairIndex[groups[g1].cls][groups[g2].cls] - C;
-          if (idx >= 0) {
-            pairMass[idx] += two;
-            pairs += two;
-          }
+        if (!(m > 0)) continue;
+        const mass = alive * m;
+        next[C + q] += mass;
+        cycle += mass * (zoneUs + classes[space.longest[q]].collisionPpduUs);
+        for (let c = 0; c < C; c++) {
+          if (!(mask & (1 << c))) continue;
+          const some = 1 - silentC[c];
+          const e = c === single ? (some - loneC[c] > 1e-300 ? (meanC[c] - loneC[c]) / (some - loneC[c]) : 2) : some > 1e-300 ? meanC[c] / some : 1;
+          colliders[q * C + c] += mass * Math.min(classes[c].stations, Math.max(c === single ? 2 : 1, e));
         }
-      }
-      for (let q = 0; q < pairMass.length; q++) {
-        next[C + q] += pairs > 0 ? (collisions * pairMass[q]) / pairs : collisions / pairMass.length;
       }
       // Stations that had just sent and stay silent at t join the listeners with k − dec.
       for (let g = 0; g < G; g++) {
@@ -412,7 +410,8 @@ function runState(
     attempts[c] /= total;
     collided[c] /= total;
   }
-  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight };
+  for (let i = 0; i < colliders.length; i++) colliders[i] /= total;
+  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders };
 }
 
 /** Some listener may still be silent, with the others silent too, at zone t (its environment still matters). */
@@ -501,9 +500,10 @@ function othersOf(silent: Float64Array, all: number, g: number): number {
   return q;
 }
 
-function prodExcept2(silent: Float64Array, a: number, b: number): number {
+/** Π silent[g'] over the other groups g' of g's class. */
+function sameClassOthers(groups: readonly Group[], silent: Float64Array, g: number): number {
   let q = 1;
-  for (let i = 0; i < silent.length; i++) if (i !== a && i !== b) q *= silent[i];
+  for (let i = 0; i < groups.length; i++) if (i !== g && groups[i].cls === groups[g].cls) q *= silent[i];
   return q;
 }
 
@@ -536,20 +536,20 @@ function groupsOf(channel: ContentionChannel, state: number, space: StateSpace, 
     });
     return groups;
   }
-  const [a, b] = space.pairs[state - C];
-  // Reference: the longest collider's PPDU end + its timeout + AIFS_min. The shorter one
-  // resumes after its own timeout or the end of the longer PPDU, whichever is later.
-  const long = classes[a].collisionPpduUs >= classes[b].collisionPpduUs ? a : b;
-  const short = long === a ? b : a;
+  const q = state - C;
+  const mask = space.masks[q];
+  // Reference: the longest collider's PPDU end + its timeout + AIFS_min. The others of the collision
+  // resume after their own timeout or the end of the longest PPDU, whichever is later.
+  const long = space.longest[q];
   const L = classes[long].collisionPpduUs;
   const refUs = L + classes[long].responseTimeoutUs;
-  const shortResumeUs = Math.max(classes[short].collisionPpduUs + classes[short].responseTimeoutUs, L);
-  const colliderOffset = (c: number): number => (c === long ? 0 : Math.round((shortResumeUs - refUs) / sigma));
+  const colliderOffset = (c: number): number =>
+    c === long ? 0 : Math.round((Math.max(classes[c].collisionPpduUs + classes[c].responseTimeoutUs, L) - refUs) / sigma);
   const listenerLag = Math.round((L + channel.eifsExtraUs - refUs) / sigma);
   classes.forEach((c, i) => {
-    const mine = (i === a ? 1 : 0) + (i === b ? 1 : 0);
+    const mine = mask & (1 << i) ? laws.colliders[q * C + i] : 0;
     if (mine > 0) groups.push({ cls: i, count: mine, offset: delay[i] + colliderOffset(i), law: laws.collider[i], bar: c.blockAckReq === null ? 0 : 1, listener: false });
-    if (c.stations > mine) groups.push({ cls: i, count: c.stations - mine, offset: delay[i] + Math.max(0, listenerLag), law: laws.listener[i], bar: laws.bar[i], listener: true });
+    if (c.stations - mine > 1e-9) groups.push({ cls: i, count: c.stations - mine, offset: delay[i] + Math.max(0, listenerLag), law: laws.listener[i], bar: laws.bar[i], listener: true });
   });
   return groups;
 }
@@ -559,16 +559,15 @@ interface Laws {
   readonly collider: readonly Law[];
   readonly listener: readonly Law[];
   readonly bar: readonly number[];
+  /** Expected colliders per collision state and class (index q·C + c), from the iterate. */
+  readonly colliders: Float64Array;
 }
 
 /** The busy time charged before zone 0 of a state beyond what runState adds: a collision's timeout. */
 function stateLeadUs(channel: ContentionChannel, state: number, space: StateSpace): number {
   const C = channel.classes.length;
   if (state < C) return 0;
-  const [a, b] = space.pairs[state - C];
-  const ca = channel.classes[a];
-  const cb = channel.classes[b];
-  return ca.collisionPpduUs >= cb.collisionPpduUs ? ca.responseTimeoutUs : cb.responseTimeoutUs;
+  return channel.classes[space.longest[state - C]].responseTimeoutUs;
 }
 
 /** Every setting of a class but its name and station count: classes with the same key are the same stations. */
@@ -612,22 +611,25 @@ interface Sweep {
 /** The iterate (p, R_0, R_1, …) as one vector, so that an accelerator can mix iterates. */
 interface Layout {
   readonly C: number;
+  /** Collision states; their expected colliders per class follow p, at C + q·C + c. */
+  readonly Q: number;
   /** Start of class c's listener law in the vector. */
   readonly start: readonly number[];
   readonly size: readonly number[];
   readonly length: number;
 }
 
-function layoutOf(classes: readonly ContentionClass[]): Layout {
+function layoutOf(classes: readonly ContentionClass[], space: StateSpace): Layout {
   const start: number[] = [];
   const size: number[] = [];
-  let at = classes.length;
+  const Q = space.masks.length;
+  let at = classes.length * (1 + Q);
   for (const c of classes) {
     start.push(at);
     size.push(c.cwMax + 1);
     at += c.cwMax + 1;
   }
-  return { C: classes.length, start, size, length: at };
+  return { C: classes.length, Q, start, size, length: at };
 }
 
 /** Arrays of CWmax + 1 or so entries per class that one sweep fills and the next overwrites (no allocation per sweep). */
@@ -668,6 +670,7 @@ function sweepOnce(
     listener: listener.map((l, i) => lawOf(l, null, buffers.listenerTails[i])),
     collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i])),
     bar: classes.map((c, i) => barShare(c, x[i])),
+    colliders: x.subarray(C, C * (1 + layout.Q)),
   };
   const outcomes: StateOutcome[] = [];
   // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
@@ -686,6 +689,15 @@ function sweepOnce(
       k += pi[s] * o.collided[c];
     });
     image[c] = a > 0 ? k / a : 0;
+  }
+  for (let q = 0; q < layout.Q; q++) {
+    let mass = 0;
+    outcomes.forEach((o, s) => (mass += pi[s] * o.next[C + q]));
+    for (let c = 0; c < C; c++) {
+      let e = 0;
+      outcomes.forEach((o, s) => (e += pi[s] * o.colliders[q * C + c]));
+      image[C + q * C + c] = mass > 0 ? e / mass : x[C + q * C + c];
+    }
   }
   for (let i = 0; i < C; i++) {
     const c = classes[i];
@@ -722,8 +734,16 @@ function maxDistance(a: Float64Array, b: Float64Array): number {
 }
 
 /** Keep a mixed iterate a valid one: p in [0, 1), every listener law non-negative and summing to 1. */
-function project(x: Float64Array, layout: Layout): void {
+function project(x: Float64Array, layout: Layout, space: StateSpace, classes: readonly ContentionClass[]): void {
   for (let c = 0; c < layout.C; c++) x[c] = Math.min(0.999999, Math.max(0, x[c]));
+  for (let q = 0; q < layout.Q; q++) {
+    const mask = space.masks[q];
+    const single = (mask & (mask - 1)) === 0;
+    for (let c = 0; c < layout.C; c++) {
+      const i = layout.C + q * layout.C + c;
+      x[i] = mask & (1 << c) ? Math.min(classes[c].stations, Math.max(single ? 2 : 1, x[i])) : 0;
+    }
+  }
   for (let c = 0; c < layout.C; c++) {
     let total = 0;
     const end = layout.start[c] + layout.size[c];
@@ -825,12 +845,13 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   const delay = classes.map((c) => c.aifsn - minAifsn);
   const order = classes.map((_, i) => i).sort((a, b) => classes[a].collisionPpduUs - classes[b].collisionPpduUs);
   const fresh = classes.map(freshLaw);
-  const layout = layoutOf(classes);
+  const layout = layoutOf(classes, space);
   const buffers = buffersOf(classes, space);
   const work: Work = { done: 0 };
   // Start: p = 0 and every listener on its first window.
   let x: Float64Array = new Float64Array(layout.length);
   classes.forEach((c, i) => x.set(uniform(c.cwMax + 1, c.cwMin + 1), layout.start[i]));
+  project(x, layout, space, classes); // two colliders of a class alone, one of each class in a mixed collision
   const fs: Float64Array[] = [];
   const gs: Float64Array[] = [];
   let last: Sweep | null = null;
@@ -859,7 +880,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     // Mixing costs about (m²/2 + 3m) passes over the iterate.
     if (gs.length >= 2) work.done += (ANDERSON_DEPTH * (ANDERSON_DEPTH + 6) * layout.length) / 2;
     x = gs.length < 2 ? new Float64Array(last.image) : andersonNext(gs, fs);
-    project(x, layout);
+    project(x, layout, space, classes);
   }
   let residual = Infinity;
   if (moved <= MAP_NOISE) {
