@@ -119,17 +119,6 @@ function lawOf(p: Float64Array, pieces: Law["pieces"], tails?: Float64Array): La
   return { p, tails: tailsOf(p, tails), pieces };
 }
 
-interface Group {
-  readonly cls: number;
-  readonly count: number;
-  readonly offset: number;
-  readonly law: Law;
-  /** Share of this group's attempts that are BlockAckReqs. */
-  readonly bar: number;
-  /** Listeners (their law is R_c) rather than stations that have just sent. */
-  readonly listener: boolean;
-}
-
 /** Zones of a listener's environment followed one by one (beyond, a geometric tail of the same mass). */
 const REACH_MAX = 24;
 /**
@@ -253,15 +242,71 @@ interface StateOutcome {
 }
 
 /**
- * Follow one state's zones until somebody sends. `busyUs` is the time from
- * the previous busy period's start to zone 0 of this state (the busy period
- * itself and AIFS_min); zone t lies t·σ after zone 0 (t may be negative for a
- * collider that resumes before the reference).
+ * One class in one state: its n stations are K "specials" (the station that
+ * has just succeeded, on a fresh draw, or the colliders, on their next
+ * window) and n − K listeners (on R_c). K is random in a collision state:
+ * kMin + j with weights[j] (see colliderCounts); its law matters because
+ * whether all of a class stay silent, E[a^K·b^(n−K)], is convex in K.
+ */
+interface Member {
+  readonly n: number;
+  readonly special: Law | null;
+  readonly specialOffset: number;
+  /** Share of the specials' attempts that are BlockAckReqs. */
+  readonly specialBar: number;
+  readonly kMin: number;
+  readonly weights: Float64Array;
+  readonly listener: Law;
+  readonly listenerOffset: number;
+  readonly listenerBar: number;
+}
+
+/** S(j − 1) = P(k ≥ j) of a law at relative zone j (1 before the law starts), and its point mass at j. */
+function survivalAt(law: Law, j: number): number {
+  return j <= 0 ? 1 : law.tails[Math.min(j, law.p.length)];
+}
+
+function massAt(law: Law, j: number): number {
+  return j >= 0 && j < law.p.length ? law.p[j] : 0;
+}
+
+/**
+ * The sums over the special count K = k (listeners m = n − k) that one zone
+ * needs, with a the specials' and b the listeners' survival:
+ *   Z = Σ w_k a^k b^m,  R = Σ w_k k a^(k−1) b^m,  E = Σ w_k m a^k b^(m−1)
+ * (R and E are Z's derivatives: per special, and per listener, "all the
+ * others of the class silent").
+ */
+function countSums(mb: Member, a: number, b: number, out: Float64Array): void {
+  let z = 0;
+  let r = 0;
+  let e = 0;
+  const w = mb.weights;
+  for (let i = 0; i < w.length; i++) {
+    const k = mb.kMin + i;
+    const m = mb.n - k;
+    const ak1 = k >= 1 ? Math.pow(a, k - 1) : 0;
+    const ak = k >= 1 ? ak1 * a : 1;
+    const bm1 = m >= 1 ? Math.pow(b, m - 1) : 0;
+    const bm = m >= 1 ? bm1 * b : 1;
+    z += w[i] * ak * bm;
+    r += w[i] * k * ak1 * bm;
+    e += w[i] * m * ak * bm1;
+  }
+  out[0] = z;
+  out[1] = r;
+  out[2] = e;
+}
+
+/**
+ * Follow one state's zones until somebody sends. Zone t lies t·σ after zone
+ * 0 (t may be negative for a collider that resumes before the reference).
+ * Classes are independent given the state; within a class the specials'
+ * count K is mixed over exactly (countSums).
  */
 function runState(
   channel: ContentionChannel,
-  groups: readonly Group[],
-  order: readonly number[],
+  members: readonly Member[],
   space: StateSpace,
   aifsMin: number,
   work: Work,
@@ -269,7 +314,6 @@ function runState(
 ): StateOutcome {
   const classes = channel.classes;
   const C = classes.length;
-  const G = groups.length;
   const sigma = channel.slotUs;
   const next = new Float64Array(space.count);
   const dataSuccess = new Float64Array(C);
@@ -279,129 +323,134 @@ function runState(
   const envLength = ENV_SHIFT + REACH_MAX + 3;
   const env = classes.map(() => new Float64Array(envLength));
   const envWeight = new Float64Array(C);
-  for (const gr of groups) if (gr.listener) envWeight[gr.cls] += gr.count;
-  const aliveExcept = new Float64Array(G).fill(1); // P(all but one station of g silent before t)
-  // Tail sums T_g(j) = P(k ≥ j): the survival S_g(t − 1) = T_g(t − o_g), exact (no running product to drift).
-  const tails = groups.map((gr) => gr.law.tails);
+  members.forEach((mb, c) => mb.weights.forEach((w, i) => (envWeight[c] += w * (mb.n - mb.kMin - i))));
   for (const d of diff) d.fill(0);
-  const h = new Float64Array(G);
-  const silentG = new Float64Array(G); // (1 − h_g)^{n_g}
-  const loneG = new Float64Array(G); // n_g h_g (1 − h_g)^{n_g − 1}
-  const silentC = new Float64Array(C); // P(no station of class c sends at t | silent before)
-  const loneC = new Float64Array(C); // P(exactly one station of class c sends at t | silent before)
-  const meanC = new Float64Array(C); // E[stations of class c that send at t | silent before]
   const colliders = new Float64Array(space.masks.length * C);
-  let alive = 1; // A(t)
+  // Per class: before t (0) and through t (1): Z = P(none of the class sent), R, E (countSums);
+  // the specials' and the listeners' point masses at t.
+  const z0 = new Float64Array(C);
+  const z1 = new Float64Array(C);
+  const r0 = new Float64Array(C);
+  const r1 = new Float64Array(C);
+  const e0 = new Float64Array(C);
+  const e1 = new Float64Array(C);
+  const ps = new Float64Array(C);
+  const pl = new Float64Array(C);
+  const a1s = new Float64Array(C);
+  const b1s = new Float64Array(C);
+  const sums = new Float64Array(3);
   let cycle = 0;
-  const first = Math.min(...groups.map((g) => g.offset));
-  const last = Math.max(...groups.map((g) => g.offset + g.law.p.length));
-  for (let t = first; t <= last && (alive > HORIZON_EPSILON || listenersWaiting(groups, aliveExcept, tails, t)); t++) {
-    let allSilent = 1;
-    work.done += 16 * (G * G + 4 * G);
-    for (let g = 0; g < G; g++) {
-      const gr = groups[g];
-      const j = t - gr.offset;
-      const before = j <= 0 ? 1 : tails[g][Math.min(j, gr.law.p.length)];
-      const pt = j >= 0 && j < gr.law.p.length ? gr.law.p[j] : 0;
-      h[g] = before > TAIL_EPSILON ? Math.min(1, pt / before) : 0;
-      silentG[g] = Math.pow(1 - h[g], gr.count);
-      loneG[g] = loneOf(gr.count, h[g]);
-      allSilent *= silentG[g];
+  let first = Infinity;
+  let last = -Infinity;
+  for (const mb of members) {
+    first = Math.min(first, mb.listenerOffset, mb.special ? mb.specialOffset : Infinity);
+    last = Math.max(last, mb.listenerOffset + mb.listener.p.length, mb.special ? mb.specialOffset + mb.special.p.length : -Infinity);
+  }
+  const finalOthers = new Float64Array(C);
+  for (let t = first; t <= last; t++) {
+    work.done += 40 * C;
+    let alive = 1;
+    let still = 1;
+    for (let c = 0; c < C; c++) {
+      const mb = members[c];
+      const js = t - mb.specialOffset;
+      const jl = t - mb.listenerOffset;
+      const a0 = mb.special ? survivalAt(mb.special, js) : 1;
+      const a1 = mb.special ? survivalAt(mb.special, js + 1) : 1;
+      const b0 = survivalAt(mb.listener, jl);
+      const b1 = survivalAt(mb.listener, jl + 1);
+      ps[c] = mb.special ? massAt(mb.special, js) : 0;
+      pl[c] = massAt(mb.listener, jl);
+      a1s[c] = a1;
+      b1s[c] = b1;
+      countSums(mb, a0, b0, sums);
+      z0[c] = sums[0];
+      r0[c] = sums[1];
+      e0[c] = sums[2];
+      countSums(mb, a1, b1, sums);
+      z1[c] = sums[0];
+      r1[c] = sums[1];
+      e1[c] = sums[2];
+      alive *= z0[c];
+      still *= z1[c];
     }
-    const busy = alive * (1 - allSilent);
+    // Some listener may still be silent with everybody else silent too: its environment still matters.
+    let waiting = 0;
+    for (let c = 0; c < C; c++) waiting = Math.max(waiting, e1[c] * b1s[c] * exceptOne(z1, c));
+    if (!(alive > HORIZON_EPSILON) && !(waiting > LISTENER_HORIZON)) break;
+    const busy = alive - still;
+    const zoneUs = t * sigma + aifsMin;
     if (busy > 0) {
-      const zoneUs = t * sigma + aifsMin;
-      let successAll = 0;
-      for (let g = 0; g < G; g++) {
-        const gr = groups[g];
-        if (h[g] === 0) continue;
-        const alone = alive * loneG[g] * othersOf(silentG, allSilent, g);
-        const c = gr.cls;
+      for (let c = 0; c < C; c++) {
+        const mb = members[c];
         const k = classes[c];
+        const o0 = exceptOne(z0, c);
+        const o1 = exceptOne(z1, c);
+        const loneSpecial = ps[c] * r1[c] * o1;
+        const loneListener = pl[c] * e1[c] * o1;
+        const alone = loneSpecial + loneListener;
         next[c] += alone;
-        successAll += alone;
-        dataSuccess[c] += alone * (1 - gr.bar);
-        const exchange = k.blockAckReq !== null ? gr.bar * k.blockAckReq.successUs + (1 - gr.bar) * k.successUs : k.successUs;
-        cycle += alone * (zoneUs + exchange);
-        const tries = alive * gr.count * h[g];
+        dataSuccess[c] += loneSpecial * (1 - mb.specialBar) + loneListener * (1 - mb.listenerBar);
+        if (alone > 0) {
+          const bars = loneSpecial * mb.specialBar + loneListener * mb.listenerBar;
+          const barUs = k.blockAckReq !== null ? k.blockAckReq.successUs : 0;
+          cycle += alone * (zoneUs + k.successUs) + bars * (barUs - k.successUs);
+        }
+        const tries = (ps[c] * r0[c] + pl[c] * e0[c]) * o0;
         attempts[c] += tries;
-        collided[c] += tries - alone;
+        collided[c] += Math.max(0, tries - alone);
+        // Specials that stay silent while somebody else starts at t join the listeners with k − dec.
+        if (mb.special && mb.special.pieces) {
+          const scale = r0[c] * o0 - r1[c] * o1; // Σ over specials of P(others busy at t, none before) ÷ P(it silent through t)
+          const js = t - mb.specialOffset;
+          if (scale > 0 && a1s[c] > TAIL_EPSILON) {
+            const dec = js < 0 ? 0 : k.countdown === "DCF" ? js : js + 1;
+            const from = js < 0 ? 0 : js + 1; // it did not send: k > t − o
+            const d = diff[c];
+            for (const piece of mb.special.pieces) {
+              const hi = piece.width - 1 - dec;
+              const lo = from - dec;
+              if (hi < lo) continue;
+              const v = (scale * piece.weight) / piece.width;
+              d[lo] += v;
+              d[hi + 1] -= v;
+            }
+          }
+        }
       }
-      // Collisions by the set S of classes that take part: Π_{c∈S} P(some of c send) · Π_{c∉S} P(none of c),
-      // less the lone sender when S is one class; the expected colliders of each class in it go with the
-      // state (a collision of three voice stations leaves three colliders, not two).
-      silentC.fill(1);
-      meanC.fill(0);
-      for (let g = 0; g < G; g++) {
-        silentC[groups[g].cls] *= silentG[g];
-        meanC[groups[g].cls] += groups[g].count * h[g];
-      }
-      loneC.fill(0);
-      for (let g = 0; g < G; g++) if (h[g] > 0) loneC[groups[g].cls] += loneG[g] * sameClassOthers(groups, silentG, g);
+      // Collisions by the set S of classes that take part: Π_{c∈S} P(some of c send at t) · Π_{c∉S} P(none
+      // of c), less the lone sender when S is one class; the colliders each class brings go with the state.
       for (let q = 0; q < space.masks.length; q++) {
         const mask = space.masks[q];
         let m = 1;
         let single = -1;
-        for (let c = 0; c < C; c++) m *= mask & (1 << c) ? 1 - silentC[c] : silentC[c];
+        for (let c = 0; c < C; c++) m *= mask & (1 << c) ? z0[c] - z1[c] : z1[c];
         if ((mask & (mask - 1)) === 0) {
           single = 31 - Math.clz32(mask);
-          let rest = 1;
-          for (let c = 0; c < C; c++) if (c !== single) rest *= silentC[c];
-          m -= loneC[single] * rest;
+          m -= (ps[single] * r1[single] + pl[single] * e1[single]) * exceptOne(z1, single);
         }
         if (!(m > 0)) continue;
-        const mass = alive * m;
-        next[C + q] += mass;
-        cycle += mass * (zoneUs + classes[space.longest[q]].collisionPpduUs);
+        next[C + q] += m;
+        cycle += m * (zoneUs + classes[space.longest[q]].collisionPpduUs);
         for (let c = 0; c < C; c++) {
           if (!(mask & (1 << c))) continue;
-          const some = 1 - silentC[c];
-          const e = c === single ? (some - loneC[c] > 1e-300 ? (meanC[c] - loneC[c]) / (some - loneC[c]) : 2) : some > 1e-300 ? meanC[c] / some : 1;
-          colliders[q * C + c] += mass * Math.min(classes[c].stations, Math.max(c === single ? 2 : 1, e));
-        }
-      }
-      // Stations that had just sent and stay silent at t join the listeners with k − dec.
-      for (let g = 0; g < G; g++) {
-        const gr = groups[g];
-        const stays = 1 - h[g];
-        if (gr.listener || stays <= 0) continue;
-        const j = t - gr.offset;
-        const surv = j < 0 ? 1 : tails[g][Math.min(j + 1, gr.law.p.length)]; // S_g(t)
-        if (surv <= TAIL_EPSILON) continue;
-        // P(busy at t and this station silent), times the stations; the others include the rest of its group.
-        const others = othersOf(silentG, allSilent, g) * (gr.count >= 1 ? Math.pow(stays, gr.count - 1) : 1);
-        const w = alive * gr.count * stays * (1 - others);
-        if (w <= 0) continue;
-        const c = gr.cls;
-        const dec = j < 0 ? 0 : classes[c].countdown === "DCF" ? j : j + 1;
-        const from = j < 0 ? 0 : j + 1; // it did not send: k > t − o_g
-        const scale = w / surv;
-        // Each uniform piece on 0…W−1, cut to k ≥ from and shifted down by dec, is uniform on from−dec … W−1−dec.
-        const d = diff[c];
-        for (const piece of gr.law.pieces as NonNullable<Law["pieces"]>) {
-          const hi = piece.width - 1 - dec;
-          const lo = from - dec;
-          if (hi < lo) continue;
-          const v = (scale * piece.weight) / piece.width;
-          d[lo] += v;
-          d[hi + 1] -= v;
+          const some = z0[c] - z1[c];
+          const senders = ps[c] * r0[c] + pl[c] * e0[c]; // E[senders of c at t; none of c before]
+          const lone = ps[c] * r1[c] + pl[c] * e1[c];
+          const e = c === single ? (some - lone > 1e-300 ? (senders - lone) / (some - lone) : 2) : some > 1e-300 ? senders / some : 1;
+          colliders[q * C + c] += m * Math.min(classes[c].stations, Math.max(c === single ? 2 : 1, e));
         }
       }
     }
     // The listeners' environment: when do the others first send, whatever the listener's own counter?
-    for (let g = 0; g < G; g++) {
-      const gr = groups[g];
-      if (!gr.listener) continue;
-      const stays = 1 - h[g];
-      const others = stays > 0 ? allSilent / stays : gr.count > 1 ? 0 : othersOf(silentG, allSilent, g);
-      const r = t - gr.offset + ENV_SHIFT;
-      if (r >= 0) env[gr.cls][Math.min(r, envLength - 1)] += gr.count * aliveExcept[g] * (1 - others);
-      aliveExcept[g] *= others;
+    for (let c = 0; c < C; c++) {
+      const r = t - members[c].listenerOffset + ENV_SHIFT;
+      if (r >= 0) env[c][Math.min(r, envLength - 1)] += e0[c] * exceptOne(z0, c) - e1[c] * exceptOne(z1, c);
+      finalOthers[c] = e1[c] * exceptOne(z1, c);
     }
-    alive *= allSilent;
   }
   // The listeners' environment beyond the horizon: the others are still silent, and will send later.
-  for (let g = 0; g < G; g++) if (groups[g].listener) env[groups[g].cls][envLength - 1] += groups[g].count * aliveExcept[g];
+  for (let c = 0; c < C; c++) env[c][envLength - 1] += finalOthers[c];
   // Normalise the next-state law (the horizon leaves at most HORIZON_EPSILON unaccounted).
   const total = next.reduce((a, b) => a + b, 0);
   for (let i = 0; i < next.length; i++) next[i] /= total;
@@ -414,16 +463,98 @@ function runState(
   return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders };
 }
 
-/** Some listener may still be silent, with the others silent too, at zone t (its environment still matters). */
-function listenersWaiting(groups: readonly Group[], aliveExcept: Float64Array, tails: readonly Float64Array[], t: number): boolean {
-  for (let g = 0; g < groups.length; g++) {
-    const gr = groups[g];
-    if (!gr.listener) continue;
-    const j = t - gr.offset;
-    const still = j <= 0 ? 1 : tails[g][Math.min(j, gr.law.p.length)];
-    if (aliveExcept[g] * still > LISTENER_HORIZON) return true;
+/** Π_{c' ≠ c} z[c']. */
+function exceptOne(z: Float64Array, c: number): number {
+  let q = 1;
+  for (let i = 0; i < z.length; i++) if (i !== c) q *= z[i];
+  return q;
+}
+
+/**
+ * The law of a collision's colliders of one class, K ≥ kMin with mean E (as
+ * the zones left it): kMin + Binomial(n − kMin, (E − kMin)/(n − kMin)), a
+ * law of our own choosing with the right mean, bounds and the binomial's
+ * spread (a collision's extra senders are independent stations).
+ */
+function colliderCounts(n: number, kMin: number, mean: number): { readonly kMin: number; readonly weights: Float64Array } {
+  const N = n - kMin;
+  const h = N > 0 ? Math.min(1, Math.max(0, (mean - kMin) / N)) : 0;
+  if (h <= 1e-12) return { kMin, weights: ONE };
+  if (h >= 1 - 1e-12) {
+    return { kMin: n, weights: ONE };
   }
-  return false;
+  // From the mode both ways by the pmf's ratio, cut where a term falls below 1e-13 of the mode.
+  const mode = Math.min(N, Math.floor((N + 1) * h));
+  const ratio = h / (1 - h);
+  const up: number[] = [];
+  for (let j = mode, v = 1; j <= N && v > 1e-13; j++) {
+    up.push(v);
+    v *= ((N - j) / (j + 1)) * ratio;
+  }
+  const down: number[] = [];
+  for (let j = mode, v = 1; j > 0; j--) {
+    v *= j / (N - j + 1) / ratio;
+    if (v <= 1e-13) break;
+    down.push(v);
+  }
+  const lo = mode - down.length;
+  const w = new Float64Array(down.length + up.length);
+  for (let i = 0; i < down.length; i++) w[down.length - 1 - i] = down[i];
+  for (let i = 0; i < up.length; i++) w[down.length + i] = up[i];
+  let total = 0;
+  for (const v of w) total += v;
+  for (let i = 0; i < w.length; i++) w[i] /= total;
+  return { kMin: kMin + lo, weights: w };
+}
+
+/** One station exactly (a success state's special), or no specials at all. */
+const ONE = Float64Array.of(1);
+
+/** The members of one state: per class its specials (fresh, or colliders and how many) and its listeners, with their zone offsets. */
+function membersOf(channel: ContentionChannel, state: number, space: StateSpace, laws: Laws, delay: readonly number[]): Member[] {
+  const classes = channel.classes;
+  const C = classes.length;
+  const sigma = channel.slotUs;
+  if (state < C) {
+    return classes.map((c, i) => ({
+      n: c.stations,
+      special: i === state ? laws.fresh[i] : null,
+      specialOffset: delay[i],
+      specialBar: 0,
+      kMin: i === state ? 1 : 0,
+      weights: ONE,
+      listener: laws.listener[i],
+      listenerOffset: delay[i],
+      listenerBar: laws.bar[i],
+    }));
+  }
+  const q = state - C;
+  const mask = space.masks[q];
+  const single = (mask & (mask - 1)) === 0;
+  // Reference: the longest collider's PPDU end + its timeout + AIFS_min. The others of the collision
+  // resume after their own timeout or the end of the longest PPDU, whichever is later; the listeners
+  // EIFS − DIFS after the longest PPDU (10.3.2.3.7).
+  const long = space.longest[q];
+  const L = classes[long].collisionPpduUs;
+  const refUs = L + classes[long].responseTimeoutUs;
+  const colliderOffset = (c: number): number =>
+    c === long ? 0 : Math.round((Math.max(classes[c].collisionPpduUs + classes[c].responseTimeoutUs, L) - refUs) / sigma);
+  const listenerLag = Math.max(0, Math.round((L + channel.eifsExtraUs - refUs) / sigma));
+  return classes.map((c, i) => {
+    const inside = (mask & (1 << i)) !== 0;
+    const counts = inside ? colliderCounts(c.stations, single ? 2 : 1, laws.colliders[q * C + i]) : { kMin: 0, weights: ONE };
+    return {
+      n: c.stations,
+      special: inside ? laws.collider[i] : null,
+      specialOffset: delay[i] + (inside ? colliderOffset(i) : 0),
+      specialBar: c.blockAckReq === null ? 0 : 1,
+      kMin: counts.kMin,
+      weights: counts.weights,
+      listener: laws.listener[i],
+      listenerOffset: delay[i] + listenerLag,
+      listenerBar: laws.bar[i],
+    };
+  });
 }
 
 /**
@@ -479,32 +610,11 @@ function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, wor
   return u;
 }
 
-/** n·h·(1 − h)^(n−1): exactly one of n stations sends. */
-function loneOf(n: number, h: number): number {
-  if (h >= 1) return n === 1 ? 1 : 0;
-  return n * h * Math.pow(1 - h, n - 1);
-}
-
 /** T(j) = Σ_{k ≥ j} law[k], j = 0 … law.length (into `t` when given, a buffer of law.length + 1 reused across sweeps). */
 function tailsOf(law: Float64Array, t: Float64Array = new Float64Array(law.length + 1)): Float64Array {
   t[law.length] = 0;
   for (let k = law.length - 1; k >= 0; k--) t[k] = t[k + 1] + law[k];
   return t;
-}
-
-/** Π_{g' ≠ g} silent[g'] (the division shortcut fails when silent[g] is 0). */
-function othersOf(silent: Float64Array, all: number, g: number): number {
-  if (silent[g] > 0) return all / silent[g];
-  let q = 1;
-  for (let i = 0; i < silent.length; i++) if (i !== g) q *= silent[i];
-  return q;
-}
-
-/** Π silent[g'] over the other groups g' of g's class. */
-function sameClassOthers(groups: readonly Group[], silent: Float64Array, g: number): number {
-  let q = 1;
-  for (let i = 0; i < groups.length; i++) if (i !== g && groups[i].cls === groups[g].cls) q *= silent[i];
-  return q;
 }
 
 /** Stationary law of a small Markov chain given by rows (power iteration). */
@@ -520,38 +630,6 @@ function stationary(rows: readonly Float64Array[]): Float64Array {
     if (moved < 1e-15) break;
   }
   return pi;
-}
-
-/** The station groups of one state: who is fresh, who collided, who only listened, and their zone offsets. */
-function groupsOf(channel: ContentionChannel, state: number, space: StateSpace, laws: Laws, delay: readonly number[]): Group[] {
-  const classes = channel.classes;
-  const C = classes.length;
-  const sigma = channel.slotUs;
-  const groups: Group[] = [];
-  if (state < C) {
-    classes.forEach((c, i) => {
-      const own = state === i ? 1 : 0;
-      if (own) groups.push({ cls: i, count: 1, offset: delay[i], law: laws.fresh[i], bar: 0, listener: false });
-      if (c.stations > own) groups.push({ cls: i, count: c.stations - own, offset: delay[i], law: laws.listener[i], bar: laws.bar[i], listener: true });
-    });
-    return groups;
-  }
-  const q = state - C;
-  const mask = space.masks[q];
-  // Reference: the longest collider's PPDU end + its timeout + AIFS_min. The others of the collision
-  // resume after their own timeout or the end of the longest PPDU, whichever is later.
-  const long = space.longest[q];
-  const L = classes[long].collisionPpduUs;
-  const refUs = L + classes[long].responseTimeoutUs;
-  const colliderOffset = (c: number): number =>
-    c === long ? 0 : Math.round((Math.max(classes[c].collisionPpduUs + classes[c].responseTimeoutUs, L) - refUs) / sigma);
-  const listenerLag = Math.round((L + channel.eifsExtraUs - refUs) / sigma);
-  classes.forEach((c, i) => {
-    const mine = mask & (1 << i) ? laws.colliders[q * C + i] : 0;
-    if (mine > 0) groups.push({ cls: i, count: mine, offset: delay[i] + colliderOffset(i), law: laws.collider[i], bar: c.blockAckReq === null ? 0 : 1, listener: false });
-    if (c.stations - mine > 1e-9) groups.push({ cls: i, count: c.stations - mine, offset: delay[i] + Math.max(0, listenerLag), law: laws.listener[i], bar: laws.bar[i], listener: true });
-  });
-  return groups;
 }
 
 interface Laws {
@@ -676,7 +754,7 @@ function sweepOnce(
   // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
   for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
   for (let s = 0; s < space.count; s++) {
-    const o = runState(channel, groupsOf(channel, s, space, laws, delay), order, space, aifsMin, work, buffers.residual[s]);
+    const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.residual[s]);
     outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
   }
   const pi = stationary(outcomes.map((o) => o.next));
