@@ -93,6 +93,10 @@ export interface MixResult {
 }
 
 const SWEEP_LIMIT = 200;
+/** Counters held in a class's tables at first (all of them when CWmax + 1 is no more). */
+const TABLE_START = 64;
+/** A state whose zones leave more than this chance that nobody has sent when the tables end grows them. */
+const OUTLAST_EPSILON = 1e-9;
 /** The accelerated iteration stops when one more sweep moves p_c and the listener laws by less than this. */
 const MAP_TOLERANCE = 1e-6;
 /**
@@ -107,7 +111,14 @@ const HORIZON_EPSILON = 1e-8;
 /** A counter law's tail below this is taken as spent. */
 const TAIL_EPSILON = 1e-15;
 
-/** A counter law with its tail sums T(j) = P(k ≥ j), and, for a fresh draw, its uniform pieces. */
+/**
+ * A counter law held on its first K counters (its table, K ≤ CWmax + 1):
+ * p[k] for k < K and the tail sums T(j) = P(k ≥ j) for j ≤ K, T(K) being the
+ * mass beyond the table. Zones are followed only within the tables (they
+ * grow when a state's zones outlast them, see solveDistinct), so beyond a
+ * table only its mass matters. Fresh and collider draws keep their uniform
+ * pieces, exact at any counter.
+ */
 interface Law {
   readonly p: Float64Array;
   readonly tails: Float64Array;
@@ -115,8 +126,24 @@ interface Law {
   readonly pieces: readonly { readonly width: number; readonly weight: number }[] | null;
 }
 
-function lawOf(p: Float64Array, pieces: Law["pieces"], tails?: Float64Array): Law {
-  return { p, tails: tailsOf(p, tails), pieces };
+function lawOf(p: Float64Array, beyond: number, pieces: Law["pieces"], tails?: Float64Array): Law {
+  return { p, tails: tailsOf(p, beyond, tails), pieces };
+}
+
+/** A mixture of uniform pieces on its table of law.length counters; returns the mass beyond the table. */
+function piecesTable(pieces: NonNullable<Law["pieces"]>, law: Float64Array): number {
+  const K = law.length;
+  law.fill(0);
+  let beyond = 0;
+  // Each piece as steps of a difference array, summed once.
+  for (const { width, weight } of pieces) {
+    const v = weight / width;
+    law[0] += v;
+    if (width < K) law[width] -= v;
+    else beyond += weight * ((width - K) / width);
+  }
+  for (let k = 1; k < K; k++) law[k] += law[k - 1];
+  return beyond;
 }
 
 /** Zones of a listener's environment followed one by one (beyond, a geometric tail of the same mass). */
@@ -148,18 +175,18 @@ function windowOf(c: ContentionClass, stage: number): number {
 
 function uniform(size: number, width: number): Float64Array {
   const law = new Float64Array(size);
-  for (let k = 0; k < width; k++) law[k] = 1 / width;
+  for (let k = 0; k < Math.min(width, size); k++) law[k] = 1 / width;
   return law;
 }
 
-function freshLaw(c: ContentionClass): Law {
-  return lawOf(uniform(c.cwMax + 1, c.cwMin + 1), [{ width: c.cwMin + 1, weight: 1 }]);
+function freshLaw(c: ContentionClass, K: number): Law {
+  const pieces = [{ width: c.cwMin + 1, weight: 1 }];
+  const law = new Float64Array(K);
+  return lawOf(law, piecesTable(pieces, law), pieces);
 }
 
 /** The counter law of a collider of class c: the next stage's window, stages weighted by p^i. */
-function colliderLaw(c: ContentionClass, p: number, scratch?: { readonly law: Float64Array; readonly tails: Float64Array }): Law {
-  const size = c.cwMax + 1;
-  const law = scratch ? scratch.law.fill(0) : new Float64Array(size);
+function colliderLaw(c: ContentionClass, p: number, scratch: { readonly law: Float64Array; readonly tails: Float64Array }): Law {
   const pieces: { width: number; weight: number }[] = [];
   const m = c.retryLimit - 1;
   let w = 1;
@@ -169,17 +196,11 @@ function colliderLaw(c: ContentionClass, p: number, scratch?: { readonly law: Fl
     w *= p;
   }
   w = 1;
-  // Each stage adds a uniform piece on 0…next−1: as steps of a difference array, summed once.
   for (let i = 0; i <= m; i++) {
-    const next = i < m ? windowOf(c, i + 1) : windowOf(c, 0);
-    const share = w / total / next;
-    law[0] += share;
-    if (next < size) law[next] -= share;
-    pieces.push({ width: next, weight: w / total });
+    pieces.push({ width: i < m ? windowOf(c, i + 1) : windowOf(c, 0), weight: w / total });
     w *= p;
   }
-  for (let k = 1; k < size; k++) law[k] += law[k - 1];
-  return lawOf(law, pieces, scratch?.tails);
+  return lawOf(scratch.law, piecesTable(pieces, scratch.law), pieces, scratch.tails);
 }
 
 function barShare(c: ContentionClass, p: number): number {
@@ -239,6 +260,8 @@ interface StateOutcome {
   readonly envWeight: Float64Array;
   /** Per collision state q and class c (index q·C + c): P(that collision) × E[colliders of class c in it]. */
   readonly colliders: Float64Array;
+  /** The chance that nobody had sent when the counter tables ended (0 when the zones ended first). */
+  readonly leftover: number;
 }
 
 /**
@@ -311,6 +334,7 @@ function runState(
   aifsMin: number,
   work: Work,
   diff: Float64Array[],
+  beyond: Float64Array[],
 ): StateOutcome {
   const classes = channel.classes;
   const C = classes.length;
@@ -325,6 +349,7 @@ function runState(
   const envWeight = new Float64Array(C);
   members.forEach((mb, c) => mb.weights.forEach((w, i) => (envWeight[c] += w * (mb.n - mb.kMin - i))));
   for (const d of diff) d.fill(0);
+  for (const b of beyond) b.fill(0);
   const colliders = new Float64Array(space.masks.length * C);
   // Per class: before t (0) and through t (1): Z = P(none of the class sent), R, E (countSums);
   // the specials' and the listeners' point masses at t.
@@ -347,6 +372,7 @@ function runState(
     last = Math.max(last, mb.listenerOffset + mb.listener.p.length, mb.special ? mb.specialOffset + mb.special.p.length : -Infinity);
   }
   const finalOthers = new Float64Array(C);
+  let leftover = 0; // P(nobody has sent) when the tables end: the zones outlast them
   for (let t = first; t <= last; t++) {
     work.done += 40 * C;
     let alive = 1;
@@ -377,7 +403,9 @@ function runState(
     // Some listener may still be silent with everybody else silent too: its environment still matters.
     let waiting = 0;
     for (let c = 0; c < C; c++) waiting = Math.max(waiting, e1[c] * b1s[c] * exceptOne(z1, c));
+    leftover = 0;
     if (!(alive > HORIZON_EPSILON) && !(waiting > LISTENER_HORIZON)) break;
+    leftover = still;
     const busy = alive - still;
     const zoneUs = t * sigma + aifsMin;
     if (busy > 0) {
@@ -407,13 +435,24 @@ function runState(
             const dec = js < 0 ? 0 : k.countdown === "DCF" ? js : js + 1;
             const from = js < 0 ? 0 : js + 1; // it did not send: k > t − o
             const d = diff[c];
+            const K = mb.listener.p.length;
+            const KE = d.length - 1;
             for (const piece of mb.special.pieces) {
               const hi = piece.width - 1 - dec;
               const lo = from - dec;
               if (hi < lo) continue;
               const v = (scale * piece.weight) / piece.width;
-              d[lo] += v;
-              d[hi + 1] -= v;
+              const top = Math.min(hi, KE - 1);
+              if (lo <= top) {
+                d[lo] += v;
+                d[top + 1] -= v;
+              }
+              // Beyond the listeners' table: the mass and the first moment Σ (j − K + 1) (listenerLaw).
+              const above = Math.max(lo, K);
+              if (above <= hi) {
+                beyond[c][0] += v * (hi - above + 1);
+                beyond[c][1] += v * (triangle(hi - K + 1) - triangle(above - K));
+              }
             }
           }
         }
@@ -460,7 +499,12 @@ function runState(
     collided[c] /= total;
   }
   for (let i = 0; i < colliders.length; i++) colliders[i] /= total;
-  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders };
+  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders, leftover };
+}
+
+/** 1 + 2 + … + x. */
+function triangle(x: number): number {
+  return (x * (x + 1)) / 2;
 }
 
 /** Π_{c' ≠ c} z[c']. */
@@ -557,6 +601,9 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   });
 }
 
+/** Jump-length terms of the renewal tail beyond a table (H is followed this far). */
+const RENEWAL_DEPTH = 128;
+
 /**
  * The listener law R_c from its entries E (counters of stations that had just
  * sent and then listened) and its environment env (the others' first busy
@@ -565,10 +612,23 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
  * with P(j → j − r − 1) = env(r), r ≥ 0 (EDCA), P(j → j − r) = env(r), r ≥ 1
  * (DCF), and a busy period before the listener's own zone (r < 0; DCF also
  * r = 0) leaving k unchanged. A listener with counter j sends at r = j and
- * leaves. Computed from the top counter down; R_c = U ÷ Σ U.
+ * leaves. Computed from the top of the table down; R_c = U ÷ Σ U.
+ *
+ * Beyond the table (k ≥ K, where no listener sends within a cycle) the
+ * counter only moves down, by jumps of law f, so U there follows the
+ * renewal theorem (W. Feller, An Introduction to Probability Theory and Its
+ * Applications, vol. I, ch. XIII; from memory): with H(d) the chance that
+ * the walk visits d below its start, H → 1/μ (μ the mean jump), so
+ *   U(k) ≈ [M(k)/μ + c·E(k)] ÷ (1 − P(k → k)),  M(k) = Σ_{j≥k} E(j),
+ *   c = Σ_d (H(d) − 1/μ),
+ * and Σ_{k≥K} U(k) ≈ [Σ_{j≥K} E(j)·(j − K + 1)/μ + c·M(K)] ÷ (1 − P(k → k)).
+ * Only the tail's mass M(K) and first moment enter (`tailMass`,
+ * `tailMoment`); E is exact on the table and R_MAX + 3 counters above it.
+ * With a table of all CWmax + 1 counters the tail is empty and U exact.
  */
-function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, work: Work, u: Float64Array = new Float64Array(entries.length)): Float64Array {
-  const K = entries.length;
+function listenerLaw(entries: Float64Array, tailMass: number, tailMoment: number, env: Float64Array, dcf: boolean, work: Work, u: Float64Array, out: Float64Array): void {
+  const K = out.length;
+  const KE = entries.length;
   // Zones r = 0 … R of the environment are followed one by one; beyond R (the others silent for many
   // zones) the environment is taken as geometric with the same first term a and tail mass M,
   // a·ρ^(r−R−1) with ρ = 1 − a/M, so its part of the inflow obeys T(k) = a·u[k + R + 1 + s] + ρ·T(k + 1)
@@ -586,33 +646,60 @@ function listenerLaw(entries: Float64Array, env: Float64Array, dcf: boolean, wor
   }
   const rho = M > 0 ? Math.max(0, 1 - a / M) : 0;
   const shift = dcf ? 0 : 1; // j = k + r + shift
+  const r0 = dcf ? 1 : 0; // the first zone that moves the counter
   work.done += K * (R + 2);
   let self = 0;
-  for (let r = 0; r < ENV_SHIFT + (dcf ? 1 : 0); r++) self += env[r];
+  for (let r = 0; r < ENV_SHIFT + r0; r++) self += env[r];
   const stay = Math.max(1e-12, 1 - self);
-  let total = 0;
-  let tail = 0; // T(k + 1)
+  let beyondTotal = 0;
+  u.fill(0);
+  if (tailMass > 0) {
+    // The jump law given a move: f(i) = env(r) ÷ stay at i = r + shift, r0 ≤ r ≤ the last zone kept
+    // (whose slot holds all later zones: counted there, a little short).
+    const top = reach + shift;
+    let mu = 0;
+    for (let r = r0; r <= reach; r++) mu += env[ENV_SHIFT + r] * (r + shift);
+    mu /= stay;
+    const H = new Float64Array(RENEWAL_DEPTH);
+    H[0] = 1;
+    let c = H[0] - 1 / mu;
+    for (let d = 1; d < RENEWAL_DEPTH; d++) {
+      let h = 0;
+      for (let i = 1, e = ENV_SHIFT + r0; i <= Math.min(d, top); i++, e++) h += (env[e] / stay) * H[d - i];
+      H[d] = h;
+      c += H[d] - 1 / mu;
+    }
+    work.done += RENEWAL_DEPTH * (top + 2);
+    let m = tailMass;
+    for (let k = K; k < KE; k++) {
+      u[k] = Math.max(0, (m / mu + c * entries[k]) / stay);
+      m -= entries[k];
+    }
+    beyondTotal = Math.max(0, (tailMoment / mu + c * tailMass) / stay);
+  }
+  let total = beyondTotal;
+  // Beyond the table the counters change slowly: the geometric part of the inflow starts at its nearest value.
+  let tail = M * u[Math.min(KE - 1, K + R + 1 + shift)]; // T(k + 1)
   for (let k = K - 1; k >= 0; k--) {
     let inflow = entries[k];
     // From j = k + r + shift; DCF r = 0 is the self-loop, and only k ≥ 1 is reachable.
     const far = k + R + 1 + shift;
-    tail = (far < K ? a * u[far] : 0) + rho * tail;
+    tail = (far < KE ? a * u[far] : 0) + rho * tail;
     if (!dcf || k >= 1) {
       // The zones r whose source counter j = k + r + shift lies inside the table, bounds taken once.
-      const rTop = Math.min(R, K - 1 - k - shift);
-      for (let r = dcf ? 1 : 0, j = k + r + shift, e = ENV_SHIFT + r; r <= rTop; r++, j++, e++) inflow += u[j] * env[e];
+      const rTop = Math.min(R, KE - 1 - k - shift);
+      for (let r = r0, j = k + r + shift, e = ENV_SHIFT + r; r <= rTop; r++, j++, e++) inflow += u[j] * env[e];
       inflow += tail;
     }
     u[k] = inflow / stay;
     total += u[k];
   }
-  if (total > 0) for (let k = 0; k < K; k++) u[k] /= total;
-  return u;
+  for (let k = 0; k < K; k++) out[k] = total > 0 ? u[k] / total : 0;
 }
 
-/** T(j) = Σ_{k ≥ j} law[k], j = 0 … law.length (into `t` when given, a buffer of law.length + 1 reused across sweeps). */
-function tailsOf(law: Float64Array, t: Float64Array = new Float64Array(law.length + 1)): Float64Array {
-  t[law.length] = 0;
+/** T(j) = Σ_{k ≥ j} law[k] + beyond, j = 0 … law.length (into `t` when given, a buffer of law.length + 1 reused across sweeps). */
+function tailsOf(law: Float64Array, beyond: number, t: Float64Array = new Float64Array(law.length + 1)): Float64Array {
+  t[law.length] = beyond;
   for (let k = law.length - 1; k >= 0; k--) t[k] = t[k + 1] + law[k];
   return t;
 }
@@ -686,75 +773,85 @@ interface Sweep {
   readonly image: Float64Array;
 }
 
-/** The iterate (p, R_0, R_1, …) as one vector, so that an accelerator can mix iterates. */
+/** The iterate (p, colliders, R_0, R_1, …) as one vector, so that an accelerator can mix iterates. */
 interface Layout {
   readonly C: number;
   /** Collision states; their expected colliders per class follow p, at C + q·C + c. */
   readonly Q: number;
-  /** Start of class c's listener law in the vector. */
+  /** Start of class c's listener table in the vector, and its length K_c. */
   readonly start: readonly number[];
   readonly size: readonly number[];
   readonly length: number;
 }
 
-function layoutOf(classes: readonly ContentionClass[], space: StateSpace): Layout {
+function layoutOf(C: number, space: StateSpace, tables: readonly number[]): Layout {
   const start: number[] = [];
-  const size: number[] = [];
   const Q = space.masks.length;
-  let at = classes.length * (1 + Q);
-  for (const c of classes) {
+  let at = C * (1 + Q);
+  for (const K of tables) {
     start.push(at);
-    size.push(c.cwMax + 1);
-    at += c.cwMax + 1;
+    at += K;
   }
-  return { C: classes.length, Q, start, size, length: at };
+  return { C, Q, start, size: tables, length: at };
 }
 
-/** Arrays of CWmax + 1 or so entries per class that one sweep fills and the next overwrites (no allocation per sweep). */
+/** Counters of a listener's entries kept beyond its table (the renewal tail reads them). */
+const ENTRY_MARGIN = REACH_MAX + 3;
+
+/** Arrays of about K_c entries per class that one sweep fills and the next overwrites (no allocation per sweep). */
 interface Buffers {
-  /** Per state and class: the residual difference arrays of runState. */
+  /** Per state and class: the residual difference arrays of runState, and their mass and moment beyond the table. */
   readonly residual: readonly Float64Array[][];
+  readonly beyond: readonly Float64Array[][];
   readonly collider: readonly { readonly law: Float64Array; readonly tails: Float64Array }[];
   readonly listenerTails: readonly Float64Array[];
   readonly entries: readonly Float64Array[];
+  readonly visits: readonly Float64Array[];
 }
 
-function buffersOf(classes: readonly ContentionClass[], space: StateSpace): Buffers {
+function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
   return {
-    residual: Array.from({ length: space.count }, () => classes.map((c) => new Float64Array(c.cwMax + 2))),
-    collider: classes.map((c) => ({ law: new Float64Array(c.cwMax + 1), tails: new Float64Array(c.cwMax + 2) })),
-    listenerTails: classes.map((c) => new Float64Array(c.cwMax + 2)),
-    entries: classes.map((c) => new Float64Array(c.cwMax + 1)),
+    residual: Array.from({ length: space.count }, () => tables.map((K) => new Float64Array(K + ENTRY_MARGIN + 1))),
+    beyond: Array.from({ length: space.count }, () => tables.map(() => new Float64Array(2))),
+    collider: tables.map((K) => ({ law: new Float64Array(K), tails: new Float64Array(K + 1) })),
+    listenerTails: tables.map((K) => new Float64Array(K + 1)),
+    entries: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
+    visits: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
   };
 }
 
-function sweepOnce(
-  channel: ContentionChannel,
-  x: Float64Array,
-  layout: Layout,
-  space: StateSpace,
-  fresh: readonly Law[],
-  delay: readonly number[],
-  order: readonly number[],
-  aifsMin: number,
-  buffers: Buffers,
-  work: Work,
-): Sweep {
+/** What a sweep needs that does not change between sweeps of one table size. */
+interface Setup {
+  readonly channel: ContentionChannel;
+  readonly space: StateSpace;
+  readonly layout: Layout;
+  readonly fresh: readonly Law[];
+  readonly delay: readonly number[];
+  readonly aifsMin: number;
+  readonly buffers: Buffers;
+}
+
+function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
+  const { channel, space, layout, fresh, delay, aifsMin, buffers } = setup;
   const classes = channel.classes;
   const C = classes.length;
   const listener = classes.map((_, i) => x.subarray(layout.start[i], layout.start[i] + layout.size[i]));
   const laws: Laws = {
     fresh,
-    listener: listener.map((l, i) => lawOf(l, null, buffers.listenerTails[i])),
+    listener: listener.map((l, i) => {
+      let held = 0;
+      for (let k = 0; k < l.length; k++) held += l[k];
+      return lawOf(l, Math.max(0, 1 - held), null, buffers.listenerTails[i]);
+    }),
     collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i])),
     bar: classes.map((c, i) => barShare(c, x[i])),
     colliders: x.subarray(C, C * (1 + layout.Q)),
   };
   const outcomes: StateOutcome[] = [];
-  // Per sweep every state allocates and sums counter-law arrays of each class (CWmax + 1 entries).
-  for (const c of classes) work.done += (c.cwMax + 1) * (3 * space.count + 8);
+  // Per sweep every state fills and sums counter-table arrays of each class.
+  for (const K of layout.size) work.done += (K + ENTRY_MARGIN) * (3 * space.count + 8);
   for (let s = 0; s < space.count; s++) {
-    const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.residual[s]);
+    const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.residual[s], buffers.beyond[s]);
     outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
   }
   const pi = stationary(outcomes.map((o) => o.next));
@@ -782,6 +879,8 @@ function sweepOnce(
     const entries = buffers.entries[i].fill(0);
     const env = new Float64Array(outcomes[0].env[i].length);
     let weight = 0;
+    let tailMass = 0;
+    let tailMoment = 0;
     for (let s = 0; s < outcomes.length; s++) {
       const o = outcomes[s];
       const w = pi[s];
@@ -790,6 +889,8 @@ function sweepOnce(
       const e = o.env[i];
       for (let k = 0; k < env.length; k++) env[k] += w * e[k];
       weight += w * o.envWeight[i];
+      tailMass += w * buffers.beyond[s][i][0];
+      tailMoment += w * buffers.beyond[s][i][1];
     }
     if (weight <= 0) {
       image.set(listener[i], layout.start[i]);
@@ -797,7 +898,7 @@ function sweepOnce(
     }
     for (let k = 1; k < entries.length; k++) entries[k] += entries[k - 1]; // prefix sums of the difference arrays
     for (let k = 0; k < env.length; k++) env[k] /= weight;
-    listenerLaw(entries, env, c.countdown === "DCF", work, image.subarray(layout.start[i], layout.start[i] + layout.size[i]));
+    listenerLaw(entries, tailMass, tailMoment, env, c.countdown === "DCF", work, buffers.visits[i], image.subarray(layout.start[i], layout.start[i] + layout.size[i]));
   }
   return { outcomes, pi, image };
 }
@@ -811,7 +912,7 @@ function maxDistance(a: Float64Array, b: Float64Array): number {
   return d;
 }
 
-/** Keep a mixed iterate a valid one: p in [0, 1), every listener law non-negative and summing to 1. */
+/** Keep a mixed iterate a valid one: p in [0, 1), colliders within their bounds, every listener table non-negative and at most 1 in all. */
 function project(x: Float64Array, layout: Layout, space: StateSpace, classes: readonly ContentionClass[]): void {
   for (let c = 0; c < layout.C; c++) x[c] = Math.min(0.999999, Math.max(0, x[c]));
   for (let q = 0; q < layout.Q; q++) {
@@ -829,7 +930,7 @@ function project(x: Float64Array, layout: Layout, space: StateSpace, classes: re
       if (!(x[k] > 0)) x[k] = 0;
       total += x[k];
     }
-    if (total > 0) for (let k = layout.start[c]; k < end; k++) x[k] /= total;
+    if (total > 1) for (let k = layout.start[c]; k < end; k++) x[k] /= total;
   }
 }
 
@@ -921,15 +1022,23 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   const minAifsn = Math.min(...classes.map((c) => c.aifsn));
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
-  const order = classes.map((_, i) => i).sort((a, b) => classes[a].collisionPpduUs - classes[b].collisionPpduUs);
-  const fresh = classes.map(freshLaw);
-  const layout = layoutOf(classes, space);
-  const buffers = buffersOf(classes, space);
   const work: Work = { done: 0 };
-  // Start: p = 0 and every listener on its first window.
-  let x: Float64Array = new Float64Array(layout.length);
-  classes.forEach((c, i) => x.set(uniform(c.cwMax + 1, c.cwMin + 1), layout.start[i]));
-  project(x, layout, space, classes); // two colliders of a class alone, one of each class in a mixed collision
+  let tables = classes.map((c) => Math.min(c.cwMax + 1, TABLE_START));
+  const setupOf = (sizes: readonly number[]): Setup => ({
+    channel,
+    space,
+    layout: layoutOf(classes.length, space, sizes),
+    fresh: classes.map((c, i) => freshLaw(c, sizes[i])),
+    delay,
+    aifsMin,
+    buffers: buffersOf(space, sizes),
+  });
+  let setup = setupOf(tables);
+  // Start: p = 0, two colliders of a class alone and one of each class in a mixed collision, every
+  // listener on its first window.
+  let x: Float64Array = new Float64Array(setup.layout.length);
+  classes.forEach((c, i) => x.set(uniform(tables[i], c.cwMin + 1), setup.layout.start[i]));
+  project(x, setup.layout, space, classes);
   const fs: Float64Array[] = [];
   const gs: Float64Array[] = [];
   let last: Sweep | null = null;
@@ -938,7 +1047,34 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   let sweeps = 0;
   for (let sweep = 0; sweep < SWEEP_LIMIT && work.done < WORK_LIMIT; sweep++) {
     sweeps++;
-    last = sweepOnce(channel, x, layout, space, fresh, delay, order, aifsMin, buffers, work);
+    last = sweepOnce(setup, x, work);
+    const outlasted = last.outcomes.some((o) => o.leftover > OUTLAST_EPSILON);
+    if (outlasted && tables.some((K, i) => K < classes[i].cwMax + 1)) {
+      // The zones outlasted a table: double the short tables and go on from the image, the mass beyond
+      // a table spread over the counters added.
+      const grown = tables.map((K, i) => Math.min(classes[i].cwMax + 1, 2 * K));
+      const next = setupOf(grown);
+      const y = new Float64Array(next.layout.length);
+      y.set(last.image.subarray(0, classes.length * (1 + space.masks.length)));
+      classes.forEach((_, i) => {
+        const old = last!.image.subarray(setup.layout.start[i], setup.layout.start[i] + tables[i]);
+        let held = 0;
+        for (const v of old) held += v;
+        const at = next.layout.start[i];
+        y.set(old, at);
+        const added = grown[i] - tables[i];
+        for (let k = tables[i]; k < grown[i]; k++) y[at + k] = added > 0 ? Math.max(0, 1 - held) / added : 0;
+      });
+      tables = grown;
+      setup = next;
+      x = y;
+      project(x, setup.layout, space, classes);
+      fs.length = 0;
+      gs.length = 0;
+      moved = Infinity;
+      best = Infinity;
+      continue;
+    }
     moved = maxDistance(last.image, x);
     if (moved <= MAP_TOLERANCE) break;
     const f = new Float64Array(x.length);
@@ -956,9 +1092,9 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     }
     best = Math.min(best, moved);
     // Mixing costs about (m²/2 + 3m) passes over the iterate.
-    if (gs.length >= 2) work.done += (ANDERSON_DEPTH * (ANDERSON_DEPTH + 6) * layout.length) / 2;
+    if (gs.length >= 2) work.done += (ANDERSON_DEPTH * (ANDERSON_DEPTH + 6) * setup.layout.length) / 2;
     x = gs.length < 2 ? new Float64Array(last.image) : andersonNext(gs, fs);
-    project(x, layout, space, classes);
+    project(x, setup.layout, space, classes);
   }
   let residual = Infinity;
   if (moved <= MAP_NOISE) {
@@ -968,7 +1104,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     // last (no contraction to see: two evaluations at the fixed point differ by their rounding of the
     // horizons), is taken as the distance left itself.
     const image = new Float64Array((last as Sweep).image);
-    const check = sweepOnce(channel, image, layout, space, fresh, delay, order, aifsMin, buffers, work);
+    const check = sweepOnce(setup, image, work);
     sweeps++;
     const step = maxDistance(check.image, image);
     const rho = Math.min(RHO_MAX, step / moved);
