@@ -94,16 +94,16 @@ export interface MixResult {
 
 const SWEEP_LIMIT = 200;
 /** Counters held in a class's tables at first (all of them when CWmax + 1 is no more). */
-const TABLE_START = 64;
+const TABLE_START = 32;
 /** A state whose zones leave more than this chance that nobody has sent when the tables end grows them. */
 const OUTLAST_EPSILON = 1e-9;
 /** The accelerated iteration stops when one more sweep moves p_c and the listener laws by less than this. */
-const MAP_TOLERANCE = 1e-6;
+const MAP_TOLERANCE = 1e-5;
 /**
  * The map's own precision: zones are followed until 1e-8 of the mass is left (HORIZON_EPSILON,
  * LISTENER_HORIZON), so two evaluations close to the fixed point differ by up to about this.
  */
-const MAP_NOISE = 1e-6;
+const MAP_NOISE = 1e-5;
 /** The contraction rate assumed at most when estimating the distance left to the fixed point. */
 const RHO_MAX = 0.999;
 /** Zones are followed until the chance that nobody has sent falls below this. */
@@ -166,8 +166,8 @@ interface Work {
 const ENV_NEGLIGIBLE = 1e-12;
 /** A listener still silent with everybody else beyond this chance no longer shapes its environment. */
 const LISTENER_HORIZON = 1e-8;
-/** Relative zones r = t − o_g from −ENV_SHIFT on are kept in the listeners' environment. */
-const ENV_SHIFT = 64;
+/** Relative zones r = t − o_g of the listeners' environment sit at r + ENV_SHIFT; every r < 0 (a busy period before the listener's own zone, all alike) in slot 0. */
+const ENV_SHIFT = 1;
 
 function windowOf(c: ContentionClass, stage: number): number {
   return Math.min(2 ** stage * (c.cwMin + 1), c.cwMax + 1);
@@ -253,7 +253,7 @@ interface StateOutcome {
    */
   readonly residualDiff: Float64Array[];
   /**
-   * The listeners' environment per class: Σ_g n_g·P(the others' first busy zone is o_g + r), r from −ENV_SHIFT,
+   * The listeners' environment per class: Σ_g n_g·P(the others' first busy zone is o_g + r), every r < 0 in slot 0,
    * and Σ_g n_g (listeners of the class in this state).
    */
   readonly env: Float64Array[];
@@ -301,13 +301,27 @@ function massAt(law: Law, j: number): number {
  * others of the class silent").
  */
 function countSums(mb: Member, a: number, b: number, out: Float64Array): void {
+  const w = mb.weights;
+  const n = mb.n;
+  if (w.length === 1) {
+    // One count (a success state, or a class outside the collision): no loop, one power at most.
+    const k = mb.kMin;
+    const m = n - k;
+    const ak1 = k === 0 ? 0 : k === 1 ? 1 : k === 2 ? a : Math.pow(a, k - 1);
+    const ak = k === 0 ? 1 : ak1 * a;
+    const bm1 = m === 0 ? 0 : m === 1 ? 1 : m === 2 ? b : Math.pow(b, m - 1);
+    const bm = m === 0 ? 1 : bm1 * b;
+    out[0] = ak * bm;
+    out[1] = k * ak1 * bm;
+    out[2] = m * ak * bm1;
+    return;
+  }
   let z = 0;
   let r = 0;
   let e = 0;
-  const w = mb.weights;
   for (let i = 0; i < w.length; i++) {
     const k = mb.kMin + i;
-    const m = mb.n - k;
+    const m = n - k;
     const ak1 = k >= 1 ? Math.pow(a, k - 1) : 0;
     const ak = k >= 1 ? ak1 * a : 1;
     const bm1 = m >= 1 ? Math.pow(b, m - 1) : 0;
@@ -333,37 +347,31 @@ function runState(
   space: StateSpace,
   aifsMin: number,
   work: Work,
-  diff: Float64Array[],
-  beyond: Float64Array[],
+  out: StateBuffers,
+  zone: ZoneScratch,
 ): StateOutcome {
   const classes = channel.classes;
   const C = classes.length;
   const sigma = channel.slotUs;
-  const next = new Float64Array(space.count);
-  const dataSuccess = new Float64Array(C);
-  const attempts = new Float64Array(C);
-  const collided = new Float64Array(C);
-  // Zones −ENV_SHIFT … REACH_MAX + 1 one by one, and the mass of all later zones in the last slot (listenerLaw).
-  const envLength = ENV_SHIFT + REACH_MAX + 3;
-  const env = classes.map(() => new Float64Array(envLength));
-  const envWeight = new Float64Array(C);
-  members.forEach((mb, c) => mb.weights.forEach((w, i) => (envWeight[c] += w * (mb.n - mb.kMin - i))));
-  for (const d of diff) d.fill(0);
-  for (const b of beyond) b.fill(0);
-  const colliders = new Float64Array(space.masks.length * C);
-  // Per class: before t (0) and through t (1): Z = P(none of the class sent), R, E (countSums);
-  // the specials' and the listeners' point masses at t.
-  const z0 = new Float64Array(C);
-  const z1 = new Float64Array(C);
-  const r0 = new Float64Array(C);
-  const r1 = new Float64Array(C);
-  const e0 = new Float64Array(C);
-  const e1 = new Float64Array(C);
-  const ps = new Float64Array(C);
-  const pl = new Float64Array(C);
-  const a1s = new Float64Array(C);
-  const b1s = new Float64Array(C);
-  const sums = new Float64Array(3);
+  const { next, dataSuccess, attempts, collided, env, envWeight, colliders, residualDiff: diff, beyond } = out;
+  next.fill(0);
+  dataSuccess.fill(0);
+  attempts.fill(0);
+  collided.fill(0);
+  colliders.fill(0);
+  envWeight.fill(0);
+  const envLength = env[0].length;
+  for (let c = 0; c < C; c++) {
+    env[c].fill(0);
+    diff[c].fill(0);
+    beyond[c].fill(0);
+    const mb = members[c];
+    for (let i = 0; i < mb.weights.length; i++) envWeight[c] += mb.weights[i] * (mb.n - mb.kMin - i);
+  }
+  // Per class: before t (0) and through t (1): Z = P(none of the class sent), R, E (countSums), and
+  // o = Π of the other classes' Z; the specials' and the listeners' point masses at t. The sums
+  // through t are the next zone's sums before it.
+  const { z0, z1, r0, r1, e0, e1, o0, o1, ps, pl, a1s, b1s, sums } = zone;
   let cycle = 0;
   let first = Infinity;
   let last = -Infinity;
@@ -371,28 +379,34 @@ function runState(
     first = Math.min(first, mb.listenerOffset, mb.special ? mb.specialOffset : Infinity);
     last = Math.max(last, mb.listenerOffset + mb.listener.p.length, mb.special ? mb.specialOffset + mb.special.p.length : -Infinity);
   }
-  const finalOthers = new Float64Array(C);
+  const finalOthers = zone.finalOthers.fill(0);
   let leftover = 0; // P(nobody has sent) when the tables end: the zones outlast them
+  for (let c = 0; c < C; c++) {
+    const mb = members[c];
+    countSums(mb, mb.special ? survivalAt(mb.special, first - mb.specialOffset) : 1, survivalAt(mb.listener, first - mb.listenerOffset), sums);
+    z0[c] = sums[0];
+    r0[c] = sums[1];
+    e0[c] = sums[2];
+  }
   for (let t = first; t <= last; t++) {
     work.done += 40 * C;
     let alive = 1;
     let still = 1;
+    if (t > first) {
+      z0.set(z1);
+      r0.set(r1);
+      e0.set(e1);
+    }
     for (let c = 0; c < C; c++) {
       const mb = members[c];
       const js = t - mb.specialOffset;
       const jl = t - mb.listenerOffset;
-      const a0 = mb.special ? survivalAt(mb.special, js) : 1;
       const a1 = mb.special ? survivalAt(mb.special, js + 1) : 1;
-      const b0 = survivalAt(mb.listener, jl);
       const b1 = survivalAt(mb.listener, jl + 1);
       ps[c] = mb.special ? massAt(mb.special, js) : 0;
       pl[c] = massAt(mb.listener, jl);
       a1s[c] = a1;
       b1s[c] = b1;
-      countSums(mb, a0, b0, sums);
-      z0[c] = sums[0];
-      r0[c] = sums[1];
-      e0[c] = sums[2];
       countSums(mb, a1, b1, sums);
       z1[c] = sums[0];
       r1[c] = sums[1];
@@ -400,9 +414,11 @@ function runState(
       alive *= z0[c];
       still *= z1[c];
     }
+    exceptEach(z0, o0);
+    exceptEach(z1, o1);
     // Some listener may still be silent with everybody else silent too: its environment still matters.
     let waiting = 0;
-    for (let c = 0; c < C; c++) waiting = Math.max(waiting, e1[c] * b1s[c] * exceptOne(z1, c));
+    for (let c = 0; c < C; c++) waiting = Math.max(waiting, e1[c] * b1s[c] * o1[c]);
     leftover = 0;
     if (!(alive > HORIZON_EPSILON) && !(waiting > LISTENER_HORIZON)) break;
     leftover = still;
@@ -412,10 +428,8 @@ function runState(
       for (let c = 0; c < C; c++) {
         const mb = members[c];
         const k = classes[c];
-        const o0 = exceptOne(z0, c);
-        const o1 = exceptOne(z1, c);
-        const loneSpecial = ps[c] * r1[c] * o1;
-        const loneListener = pl[c] * e1[c] * o1;
+        const loneSpecial = ps[c] * r1[c] * o1[c];
+        const loneListener = pl[c] * e1[c] * o1[c];
         const alone = loneSpecial + loneListener;
         next[c] += alone;
         dataSuccess[c] += loneSpecial * (1 - mb.specialBar) + loneListener * (1 - mb.listenerBar);
@@ -424,12 +438,12 @@ function runState(
           const barUs = k.blockAckReq !== null ? k.blockAckReq.successUs : 0;
           cycle += alone * (zoneUs + k.successUs) + bars * (barUs - k.successUs);
         }
-        const tries = (ps[c] * r0[c] + pl[c] * e0[c]) * o0;
+        const tries = (ps[c] * r0[c] + pl[c] * e0[c]) * o0[c];
         attempts[c] += tries;
         collided[c] += Math.max(0, tries - alone);
         // Specials that stay silent while somebody else starts at t join the listeners with k − dec.
         if (mb.special && mb.special.pieces) {
-          const scale = r0[c] * o0 - r1[c] * o1; // Σ over specials of P(others busy at t, none before) ÷ P(it silent through t)
+          const scale = r0[c] * o0[c] - r1[c] * o1[c]; // Σ over specials of P(others busy at t, none before) ÷ P(it silent through t)
           const js = t - mb.specialOffset;
           if (scale > 0 && a1s[c] > TAIL_EPSILON) {
             const dec = js < 0 ? 0 : k.countdown === "DCF" ? js : js + 1;
@@ -466,7 +480,7 @@ function runState(
         for (let c = 0; c < C; c++) m *= mask & (1 << c) ? z0[c] - z1[c] : z1[c];
         if ((mask & (mask - 1)) === 0) {
           single = 31 - Math.clz32(mask);
-          m -= (ps[single] * r1[single] + pl[single] * e1[single]) * exceptOne(z1, single);
+          m -= (ps[single] * r1[single] + pl[single] * e1[single]) * o1[single];
         }
         if (!(m > 0)) continue;
         next[C + q] += m;
@@ -483,9 +497,9 @@ function runState(
     }
     // The listeners' environment: when do the others first send, whatever the listener's own counter?
     for (let c = 0; c < C; c++) {
-      const r = t - members[c].listenerOffset + ENV_SHIFT;
-      if (r >= 0) env[c][Math.min(r, envLength - 1)] += e0[c] * exceptOne(z0, c) - e1[c] * exceptOne(z1, c);
-      finalOthers[c] = e1[c] * exceptOne(z1, c);
+      const r = Math.max(0, t - members[c].listenerOffset + ENV_SHIFT);
+      env[c][Math.min(r, envLength - 1)] += e0[c] * o0[c] - e1[c] * o1[c];
+      finalOthers[c] = e1[c] * o1[c];
     }
   }
   // The listeners' environment beyond the horizon: the others are still silent, and will send later.
@@ -507,11 +521,71 @@ function triangle(x: number): number {
   return (x * (x + 1)) / 2;
 }
 
-/** Π_{c' ≠ c} z[c']. */
-function exceptOne(z: Float64Array, c: number): number {
-  let q = 1;
-  for (let i = 0; i < z.length; i++) if (i !== c) q *= z[i];
-  return q;
+/** o[c] = Π_{c' ≠ c} z[c'], by products from both ends (no division: a z may be 0). */
+function exceptEach(z: Float64Array, o: Float64Array): void {
+  let left = 1;
+  for (let c = 0; c < z.length; c++) {
+    o[c] = left;
+    left *= z[c];
+  }
+  let right = 1;
+  for (let c = z.length - 1; c >= 0; c--) {
+    o[c] *= right;
+    right *= z[c];
+  }
+}
+
+/** The arrays one state's outcome is written into (kept per state: the sweep reads them all afterwards). */
+interface StateBuffers {
+  readonly next: Float64Array;
+  readonly dataSuccess: Float64Array;
+  readonly attempts: Float64Array;
+  readonly collided: Float64Array;
+  readonly env: Float64Array[];
+  readonly envWeight: Float64Array;
+  readonly colliders: Float64Array;
+  /** Per class: the residual difference array, and its mass and moment beyond the table. */
+  readonly residualDiff: Float64Array[];
+  readonly beyond: Float64Array[];
+}
+
+function stateBuffersOf(space: StateSpace, tables: readonly number[]): StateBuffers {
+  const C = tables.length;
+  return {
+    next: new Float64Array(space.count),
+    dataSuccess: new Float64Array(C),
+    attempts: new Float64Array(C),
+    collided: new Float64Array(C),
+    // Zones r < 0 together, 0 … REACH_MAX + 1 one by one, and the mass of all later zones in the last slot (listenerLaw).
+    env: tables.map(() => new Float64Array(ENV_SHIFT + REACH_MAX + 3)),
+    envWeight: new Float64Array(C),
+    colliders: new Float64Array(space.masks.length * C),
+    residualDiff: tables.map((K) => new Float64Array(K + ENTRY_MARGIN + 1)),
+    beyond: tables.map(() => new Float64Array(2)),
+  };
+}
+
+/** Per-zone working arrays of runState, shared by the states of a sweep. */
+interface ZoneScratch {
+  readonly z0: Float64Array;
+  readonly z1: Float64Array;
+  readonly r0: Float64Array;
+  readonly r1: Float64Array;
+  readonly e0: Float64Array;
+  readonly e1: Float64Array;
+  readonly o0: Float64Array;
+  readonly o1: Float64Array;
+  readonly ps: Float64Array;
+  readonly pl: Float64Array;
+  readonly a1s: Float64Array;
+  readonly b1s: Float64Array;
+  readonly finalOthers: Float64Array;
+  readonly sums: Float64Array;
+}
+
+function zoneScratchOf(C: number): ZoneScratch {
+  const a = () => new Float64Array(C);
+  return { z0: a(), z1: a(), r0: a(), r1: a(), e0: a(), e1: a(), o0: a(), o1: a(), ps: a(), pl: a(), a1s: a(), b1s: a(), finalOthers: a(), sums: new Float64Array(3) };
 }
 
 /**
@@ -601,8 +675,10 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   });
 }
 
-/** Jump-length terms of the renewal tail beyond a table (H is followed this far). */
-const RENEWAL_DEPTH = 128;
+/** Jump-length terms of the renewal tail beyond a table (H is followed at most this far). */
+const RENEWAL_DEPTH = 256;
+/** H(d) within this of 1/μ counts as settled. */
+const RENEWAL_SETTLED = 1e-9;
 
 /**
  * The listener law R_c from its entries E (counters of stations that had just
@@ -663,13 +739,17 @@ function listenerLaw(entries: Float64Array, tailMass: number, tailMoment: number
     const H = new Float64Array(RENEWAL_DEPTH);
     H[0] = 1;
     let c = H[0] - 1 / mu;
-    for (let d = 1; d < RENEWAL_DEPTH; d++) {
+    // H(d) − 1/μ dies out geometrically: stop once `top` terms in a row are within RENEWAL_SETTLED.
+    let settled = 0;
+    let depth = 1;
+    for (; depth < RENEWAL_DEPTH && settled < top; depth++) {
       let h = 0;
-      for (let i = 1, e = ENV_SHIFT + r0; i <= Math.min(d, top); i++, e++) h += (env[e] / stay) * H[d - i];
-      H[d] = h;
-      c += H[d] - 1 / mu;
+      for (let i = 1, e = ENV_SHIFT + r0; i <= Math.min(depth, top); i++, e++) h += env[e] * H[depth - i];
+      H[depth] = h / stay;
+      c += H[depth] - 1 / mu;
+      settled = Math.abs(H[depth] - 1 / mu) < RENEWAL_SETTLED ? settled + 1 : 0;
     }
-    work.done += RENEWAL_DEPTH * (top + 2);
+    work.done += depth * (top + 2);
     let m = tailMass;
     for (let k = K; k < KE; k++) {
       u[k] = Math.max(0, (m / mu + c * entries[k]) / stay);
@@ -704,18 +784,41 @@ function tailsOf(law: Float64Array, beyond: number, t: Float64Array = new Float6
   return t;
 }
 
-/** Stationary law of a small Markov chain given by rows (power iteration). */
+/**
+ * Stationary law of a small Markov chain given by rows: π(I − P) = 0 with
+ * Σπ = 1, the last balance equation replaced by the sum, by Gaussian
+ * elimination with partial pivoting.
+ */
 function stationary(rows: readonly Float64Array[]): Float64Array {
   const S = rows.length;
-  let pi = new Float64Array(S).fill(1 / S);
-  for (let it = 0; it < 5000; it++) {
-    const nextPi = new Float64Array(S);
-    for (let a = 0; a < S; a++) for (let b = 0; b < S; b++) nextPi[b] += pi[a] * rows[a][b];
-    let moved = 0;
-    for (let b = 0; b < S; b++) moved = Math.max(moved, Math.abs(nextPi[b] - pi[b]));
-    pi = nextPi;
-    if (moved < 1e-15) break;
+  // Unknowns π_b; equation a: Σ_b π_b (δ_ab − P_ba) = 0 for a < S − 1, and Σ_b π_b = 1.
+  const A = Array.from({ length: S }, (_, a) => {
+    const row = new Float64Array(S + 1);
+    for (let b = 0; b < S; b++) row[b] = a === S - 1 ? 1 : (a === b ? 1 : 0) - rows[b][a];
+    row[S] = a === S - 1 ? 1 : 0;
+    return row;
+  });
+  for (let col = 0; col < S; col++) {
+    let best = col;
+    for (let r = col + 1; r < S; r++) if (Math.abs(A[r][col]) > Math.abs(A[best][col])) best = r;
+    [A[col], A[best]] = [A[best], A[col]];
+    const piv = A[col][col];
+    if (piv === 0) continue;
+    for (let r = col + 1; r < S; r++) {
+      const q = A[r][col] / piv;
+      if (q === 0) continue;
+      for (let k = col; k <= S; k++) A[r][k] -= q * A[col][k];
+    }
   }
+  const pi = new Float64Array(S);
+  for (let r = S - 1; r >= 0; r--) {
+    let v = A[r][S];
+    for (let k = r + 1; k < S; k++) v -= A[r][k] * pi[k];
+    pi[r] = A[r][r] !== 0 ? Math.max(0, v / A[r][r]) : 0;
+  }
+  let total = 0;
+  for (const v of pi) total += v;
+  for (let b = 0; b < S; b++) pi[b] /= total;
   return pi;
 }
 
@@ -800,9 +903,9 @@ const ENTRY_MARGIN = REACH_MAX + 3;
 
 /** Arrays of about K_c entries per class that one sweep fills and the next overwrites (no allocation per sweep). */
 interface Buffers {
-  /** Per state and class: the residual difference arrays of runState, and their mass and moment beyond the table. */
-  readonly residual: readonly Float64Array[][];
-  readonly beyond: readonly Float64Array[][];
+  /** Per state: what runState writes. */
+  readonly states: readonly StateBuffers[];
+  readonly zone: ZoneScratch;
   readonly collider: readonly { readonly law: Float64Array; readonly tails: Float64Array }[];
   readonly listenerTails: readonly Float64Array[];
   readonly entries: readonly Float64Array[];
@@ -811,8 +914,8 @@ interface Buffers {
 
 function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
   return {
-    residual: Array.from({ length: space.count }, () => tables.map((K) => new Float64Array(K + ENTRY_MARGIN + 1))),
-    beyond: Array.from({ length: space.count }, () => tables.map(() => new Float64Array(2))),
+    states: Array.from({ length: space.count }, () => stateBuffersOf(space, tables)),
+    zone: zoneScratchOf(tables.length),
     collider: tables.map((K) => ({ law: new Float64Array(K), tails: new Float64Array(K + 1) })),
     listenerTails: tables.map((K) => new Float64Array(K + 1)),
     entries: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
@@ -851,7 +954,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
   // Per sweep every state fills and sums counter-table arrays of each class.
   for (const K of layout.size) work.done += (K + ENTRY_MARGIN) * (3 * space.count + 8);
   for (let s = 0; s < space.count; s++) {
-    const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.residual[s], buffers.beyond[s]);
+    const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.states[s], buffers.zone);
     outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
   }
   const pi = stationary(outcomes.map((o) => o.next));
@@ -889,8 +992,8 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
       const e = o.env[i];
       for (let k = 0; k < env.length; k++) env[k] += w * e[k];
       weight += w * o.envWeight[i];
-      tailMass += w * buffers.beyond[s][i][0];
-      tailMoment += w * buffers.beyond[s][i][1];
+      tailMass += w * buffers.states[s].beyond[i][0];
+      tailMoment += w * buffers.states[s].beyond[i][1];
     }
     if (weight <= 0) {
       image.set(listener[i], layout.start[i]);
