@@ -316,19 +316,33 @@ function countSums(mb: Member, a: number, b: number, out: Float64Array): void {
     out[2] = m * ak * bm1;
     return;
   }
+  // Two powers per call: a^(k − 1) upward from k = kMin, and b^(m − 1) upward from the fewest listeners
+  // (m = n − kTop), read back from the top (POWERS_SCRATCH).
   let z = 0;
   let r = 0;
   let e = 0;
-  for (let i = 0; i < w.length; i++) {
+  const L = w.length;
+  const kTop = mb.kMin + L - 1;
+  const mLow = n - kTop;
+  const bp = POWERS_SCRATCH.length >= L + 1 ? POWERS_SCRATCH : new Float64Array(L + 1);
+  // bp[j] = b^(mLow − 1 + j) (b^(−1) is never used: its factor m is 0 there)
+  bp[0] = mLow >= 1 ? Math.pow(b, mLow - 1) : 0;
+  let v = mLow >= 1 ? bp[0] * b : 1;
+  for (let j = 1; j <= L; j++) {
+    bp[j] = v;
+    v *= b;
+  }
+  let ak1 = mb.kMin >= 1 ? Math.pow(a, mb.kMin - 1) : 0;
+  for (let i = 0; i < L; i++) {
     const k = mb.kMin + i;
     const m = n - k;
-    const ak1 = k >= 1 ? Math.pow(a, k - 1) : 0;
     const ak = k >= 1 ? ak1 * a : 1;
-    const bm1 = m >= 1 ? Math.pow(b, m - 1) : 0;
-    const bm = m >= 1 ? bm1 * b : 1;
+    const bm1 = m >= 1 ? bp[L - 1 - i] : 0;
+    const bm = m >= 1 ? bp[L - i] : 1;
     z += w[i] * ak * bm;
     r += w[i] * k * ak1 * bm;
     e += w[i] * m * ak * bm1;
+    ak1 = k >= 1 ? ak : 1;
   }
   out[0] = z;
   out[1] = r;
@@ -625,6 +639,9 @@ function colliderCounts(n: number, kMin: number, mean: number): { readonly kMin:
   return { kMin: kMin + lo, weights: w };
 }
 
+/** countSums' powers of b (grown on demand for very wide count laws). */
+const POWERS_SCRATCH = new Float64Array(128);
+
 /** One station exactly (a success state's special), or no specials at all. */
 const ONE = Float64Array.of(1);
 
@@ -660,7 +677,7 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   const listenerLag = Math.max(0, Math.round((L + channel.eifsExtraUs - refUs) / sigma));
   return classes.map((c, i) => {
     const inside = (mask & (1 << i)) !== 0;
-    const counts = inside ? colliderCounts(c.stations, single ? 2 : 1, laws.colliders[q * C + i]) : { kMin: 0, weights: ONE };
+    const counts = inside ? colliderCounts(c.stations, single ? 2 : 1, laws.colliders[q * C + i] * c.stations) : { kMin: 0, weights: ONE };
     return {
       n: c.stations,
       special: inside ? laws.collider[i] : null,
@@ -679,6 +696,8 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
 const RENEWAL_DEPTH = 256;
 /** H(d) within this of 1/μ counts as settled. */
 const RENEWAL_SETTLED = 1e-9;
+/** H of listenerLaw, overwritten by every call (the solver runs to the end once started: no reentry). */
+const RENEWAL_SCRATCH = new Float64Array(RENEWAL_DEPTH);
 
 /**
  * The listener law R_c from its entries E (counters of stations that had just
@@ -736,7 +755,7 @@ function listenerLaw(entries: Float64Array, tailMass: number, tailMoment: number
     let mu = 0;
     for (let r = r0; r <= reach; r++) mu += env[ENV_SHIFT + r] * (r + shift);
     mu /= stay;
-    const H = new Float64Array(RENEWAL_DEPTH);
+    const H = RENEWAL_SCRATCH;
     H[0] = 1;
     let c = H[0] - 1 / mu;
     // H(d) − 1/μ dies out geometrically: stop once `top` terms in a row are within RENEWAL_SETTLED.
@@ -827,7 +846,7 @@ interface Laws {
   readonly collider: readonly Law[];
   readonly listener: readonly Law[];
   readonly bar: readonly number[];
-  /** Expected colliders per collision state and class (index q·C + c), from the iterate. */
+  /** Expected colliders per collision state and class (index q·C + c) as a share of the class's stations, from the iterate (a share, so that the accelerator weighs it like p). */
   readonly colliders: Float64Array;
 }
 
@@ -879,7 +898,7 @@ interface Sweep {
 /** The iterate (p, colliders, R_0, R_1, …) as one vector, so that an accelerator can mix iterates. */
 interface Layout {
   readonly C: number;
-  /** Collision states; their expected colliders per class follow p, at C + q·C + c. */
+  /** Collision states; their expected colliders per class, as shares of its stations, follow p at C + q·C + c. */
   readonly Q: number;
   /** Start of class c's listener table in the vector, and its length K_c. */
   readonly start: readonly number[];
@@ -910,6 +929,8 @@ interface Buffers {
   readonly listenerTails: readonly Float64Array[];
   readonly entries: readonly Float64Array[];
   readonly visits: readonly Float64Array[];
+  /** Per class: the listeners' environment averaged over the states. */
+  readonly env: readonly Float64Array[];
 }
 
 function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
@@ -920,6 +941,7 @@ function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
     listenerTails: tables.map((K) => new Float64Array(K + 1)),
     entries: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
     visits: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
+    env: tables.map(() => new Float64Array(ENV_SHIFT + REACH_MAX + 3)),
   };
 }
 
@@ -974,13 +996,13 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
     for (let c = 0; c < C; c++) {
       let e = 0;
       outcomes.forEach((o, s) => (e += pi[s] * o.colliders[q * C + c]));
-      image[C + q * C + c] = mass > 0 ? e / mass : x[C + q * C + c];
+      image[C + q * C + c] = mass > 0 ? e / mass / classes[c].stations : x[C + q * C + c];
     }
   }
   for (let i = 0; i < C; i++) {
     const c = classes[i];
     const entries = buffers.entries[i].fill(0);
-    const env = new Float64Array(outcomes[0].env[i].length);
+    const env = buffers.env[i].fill(0);
     let weight = 0;
     let tailMass = 0;
     let tailMoment = 0;
@@ -1023,7 +1045,7 @@ function project(x: Float64Array, layout: Layout, space: StateSpace, classes: re
     const single = (mask & (mask - 1)) === 0;
     for (let c = 0; c < layout.C; c++) {
       const i = layout.C + q * layout.C + c;
-      x[i] = mask & (1 << c) ? Math.min(classes[c].stations, Math.max(single ? 2 : 1, x[i])) : 0;
+      x[i] = mask & (1 << c) ? Math.min(1, Math.max((single ? 2 : 1) / classes[c].stations, x[i])) : 0;
     }
   }
   for (let c = 0; c < layout.C; c++) {
