@@ -608,33 +608,38 @@ function zoneScratchOf(C: number): ZoneScratch {
  * law of our own choosing with the right mean, bounds and the binomial's
  * spread (a collision's extra senders are independent stations).
  */
-function colliderCounts(n: number, kMin: number, mean: number): { readonly kMin: number; readonly weights: Float64Array } {
+function colliderCounts(n: number, kMin: number, mean: number, into: Float64Array): { readonly kMin: number; readonly weights: Float64Array } {
   const N = n - kMin;
   const h = N > 0 ? Math.min(1, Math.max(0, (mean - kMin) / N)) : 0;
   if (h <= 1e-12) return { kMin, weights: ONE };
-  if (h >= 1 - 1e-12) {
-    return { kMin: n, weights: ONE };
-  }
+  if (h >= 1 - 1e-12) return { kMin: n, weights: ONE };
   // From the mode both ways by the pmf's ratio, cut where a term falls below 1e-13 of the mode.
   const mode = Math.min(N, Math.floor((N + 1) * h));
   const ratio = h / (1 - h);
-  const up: number[] = [];
-  for (let j = mode, v = 1; j <= N && v > 1e-13; j++) {
-    up.push(v);
-    v *= ((N - j) / (j + 1)) * ratio;
-  }
-  const down: number[] = [];
+  let lo = mode;
   for (let j = mode, v = 1; j > 0; j--) {
     v *= j / (N - j + 1) / ratio;
     if (v <= 1e-13) break;
-    down.push(v);
+    lo = j - 1;
   }
-  const lo = mode - down.length;
-  const w = new Float64Array(down.length + up.length);
-  for (let i = 0; i < down.length; i++) w[down.length - 1 - i] = down[i];
-  for (let i = 0; i < up.length; i++) w[down.length + i] = up[i];
+  let hi = mode;
+  for (let j = mode, v = 1; j < N; j++) {
+    v *= ((N - j) / (j + 1)) * ratio;
+    if (v <= 1e-13) break;
+    hi = j + 1;
+  }
+  const w = hi - lo + 1 <= into.length ? into.subarray(0, hi - lo + 1) : new Float64Array(hi - lo + 1);
+  w[mode - lo] = 1;
+  for (let j = mode, v = 1; j > lo; j--) {
+    v *= j / (N - j + 1) / ratio;
+    w[j - 1 - lo] = v;
+  }
+  for (let j = mode, v = 1; j < hi; j++) {
+    v *= ((N - j) / (j + 1)) * ratio;
+    w[j + 1 - lo] = v;
+  }
   let total = 0;
-  for (const v of w) total += v;
+  for (let i = 0; i < w.length; i++) total += w[i];
   for (let i = 0; i < w.length; i++) w[i] /= total;
   return { kMin: kMin + lo, weights: w };
 }
@@ -677,7 +682,7 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   const listenerLag = Math.max(0, Math.round((L + channel.eifsExtraUs - refUs) / sigma));
   return classes.map((c, i) => {
     const inside = (mask & (1 << i)) !== 0;
-    const counts = inside ? colliderCounts(c.stations, single ? 2 : 1, laws.colliders[q * C + i] * c.stations) : { kMin: 0, weights: ONE };
+    const counts = inside ? colliderCounts(c.stations, single ? 2 : 1, laws.colliders[q * C + i] * c.stations, laws.countScratch[q * C + i]) : { kMin: 0, weights: ONE };
     return {
       n: c.stations,
       special: inside ? laws.collider[i] : null,
@@ -810,42 +815,53 @@ function tailsOf(law: Float64Array, beyond: number, t: Float64Array = new Float6
  */
 function stationary(rows: readonly Float64Array[]): Float64Array {
   const S = rows.length;
-  // Unknowns π_b; equation a: Σ_b π_b (δ_ab − P_ba) = 0 for a < S − 1, and Σ_b π_b = 1.
-  const A = Array.from({ length: S }, (_, a) => {
-    const row = new Float64Array(S + 1);
-    for (let b = 0; b < S; b++) row[b] = a === S - 1 ? 1 : (a === b ? 1 : 0) - rows[b][a];
-    row[S] = a === S - 1 ? 1 : 0;
-    return row;
-  });
+  const W = S + 1;
+  // Unknowns π_b; equation a: Σ_b π_b (δ_ab − P_ba) = 0 for a < S − 1, and Σ_b π_b = 1. Row a at a·W.
+  const A = S * W <= STATIONARY_SCRATCH.length ? STATIONARY_SCRATCH : new Float64Array(S * W);
+  for (let a = 0; a < S; a++) {
+    for (let b = 0; b < S; b++) A[a * W + b] = a === S - 1 ? 1 : (a === b ? 1 : 0) - rows[b][a];
+    A[a * W + S] = a === S - 1 ? 1 : 0;
+  }
   for (let col = 0; col < S; col++) {
     let best = col;
-    for (let r = col + 1; r < S; r++) if (Math.abs(A[r][col]) > Math.abs(A[best][col])) best = r;
-    [A[col], A[best]] = [A[best], A[col]];
-    const piv = A[col][col];
+    for (let r = col + 1; r < S; r++) if (Math.abs(A[r * W + col]) > Math.abs(A[best * W + col])) best = r;
+    if (best !== col) {
+      for (let k = 0; k < W; k++) {
+        const t = A[col * W + k];
+        A[col * W + k] = A[best * W + k];
+        A[best * W + k] = t;
+      }
+    }
+    const piv = A[col * W + col];
     if (piv === 0) continue;
     for (let r = col + 1; r < S; r++) {
-      const q = A[r][col] / piv;
+      const q = A[r * W + col] / piv;
       if (q === 0) continue;
-      for (let k = col; k <= S; k++) A[r][k] -= q * A[col][k];
+      for (let k = col; k < W; k++) A[r * W + k] -= q * A[col * W + k];
     }
   }
   const pi = new Float64Array(S);
   for (let r = S - 1; r >= 0; r--) {
-    let v = A[r][S];
-    for (let k = r + 1; k < S; k++) v -= A[r][k] * pi[k];
-    pi[r] = A[r][r] !== 0 ? Math.max(0, v / A[r][r]) : 0;
+    let v = A[r * W + S];
+    for (let k = r + 1; k < S; k++) v -= A[r * W + k] * pi[k];
+    pi[r] = A[r * W + r] !== 0 ? Math.max(0, v / A[r * W + r]) : 0;
   }
   let total = 0;
-  for (const v of pi) total += v;
+  for (let b = 0; b < S; b++) total += pi[b];
   for (let b = 0; b < S; b++) pi[b] /= total;
   return pi;
 }
+
+/** stationary's elimination rows (the solver never reenters). */
+const STATIONARY_SCRATCH = new Float64Array(32 * 33);
 
 interface Laws {
   readonly fresh: readonly Law[];
   readonly collider: readonly Law[];
   readonly listener: readonly Law[];
   readonly bar: readonly number[];
+  /** Buffers for the colliders' count laws per collision state and class (index q·C + c). */
+  readonly countScratch: readonly Float64Array[];
   /** Expected colliders per collision state and class (index q·C + c) as a share of the class's stations, from the iterate (a share, so that the accelerator weighs it like p). */
   readonly colliders: Float64Array;
 }
@@ -931,6 +947,8 @@ interface Buffers {
   readonly visits: readonly Float64Array[];
   /** Per class: the listeners' environment averaged over the states. */
   readonly env: readonly Float64Array[];
+  /** Per collision state and class: its colliders' count law. */
+  readonly counts: readonly Float64Array[];
 }
 
 function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
@@ -942,7 +960,28 @@ function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
     entries: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
     visits: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
     env: tables.map(() => new Float64Array(ENV_SHIFT + REACH_MAX + 3)),
+    counts: Array.from({ length: space.masks.length * tables.length }, () => new Float64Array(64)),
   };
+}
+
+/**
+ * Working buffers by shape, reused across solutions (allocating the few
+ * dozen small arrays costs more than a solution's arithmetic). Every buffer
+ * is overwritten or cleared before it is read, so no answer depends on what
+ * an earlier solution left in them. At most POOL_LIMIT shapes are kept.
+ */
+const BUFFER_POOL = new Map<string, Buffers>();
+const POOL_LIMIT = 32;
+
+function pooledBuffers(space: StateSpace, tables: readonly number[]): Buffers {
+  const key = `${space.masks.join(",")}|${tables.join(",")}`;
+  let b = BUFFER_POOL.get(key);
+  if (!b) {
+    if (BUFFER_POOL.size >= POOL_LIMIT) BUFFER_POOL.clear();
+    b = buffersOf(space, tables);
+    BUFFER_POOL.set(key, b);
+  }
+  return b;
 }
 
 /** What a sweep needs that does not change between sweeps of one table size. */
@@ -971,6 +1010,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
     collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i])),
     bar: classes.map((c, i) => barShare(c, x[i])),
     colliders: x.subarray(C, C * (1 + layout.Q)),
+    countScratch: buffers.counts,
   };
   const outcomes: StateOutcome[] = [];
   // Per sweep every state fills and sums counter-table arrays of each class.
@@ -1156,7 +1196,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     fresh: classes.map((c, i) => freshLaw(c, sizes[i])),
     delay,
     aifsMin,
-    buffers: buffersOf(space, sizes),
+    buffers: pooledBuffers(space, sizes),
   });
   let setup = setupOf(tables);
   // Start: p = 0, two colliders of a class alone and one of each class in a mixed collision, every
