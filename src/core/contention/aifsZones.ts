@@ -99,13 +99,6 @@ const TABLE_START = 32;
 const OUTLAST_EPSILON = 1e-9;
 /** The accelerated iteration stops when one more sweep moves p_c and the listener laws by less than this. */
 const MAP_TOLERANCE = 1e-5;
-/**
- * The map's own precision: zones are followed until 1e-8 of the mass is left (HORIZON_EPSILON,
- * LISTENER_HORIZON), so two evaluations close to the fixed point differ by up to about this.
- */
-const MAP_NOISE = 1e-5;
-/** The contraction rate assumed at most when estimating the distance left to the fixed point. */
-const RHO_MAX = 0.999;
 /** Zones are followed until the chance that nobody has sent falls below this. */
 const HORIZON_EPSILON = 1e-8;
 /** A counter law's tail below this is taken as spent. */
@@ -170,7 +163,9 @@ const LISTENER_HORIZON = 1e-8;
 const ENV_SHIFT = 1;
 
 function windowOf(c: ContentionClass, stage: number): number {
-  return Math.min(2 ** stage * (c.cwMin + 1), c.cwMax + 1);
+  let w = c.cwMin + 1;
+  for (let i = 0; i < stage && w < c.cwMax + 1; i++) w *= 2;
+  return Math.min(w, c.cwMax + 1);
 }
 
 function uniform(size: number, width: number): Float64Array {
@@ -368,12 +363,9 @@ function runState(
   const C = classes.length;
   const sigma = channel.slotUs;
   const { next, dataSuccess, attempts, collided, env, envWeight, colliders, residualDiff: diff, beyond } = out;
-  next.fill(0);
-  dataSuccess.fill(0);
-  attempts.fill(0);
-  collided.fill(0);
-  colliders.fill(0);
-  envWeight.fill(0);
+  for (let i = 0; i < next.length; i++) next[i] = 0;
+  for (let i = 0; i < colliders.length; i++) colliders[i] = 0;
+  for (let c = 0; c < C; c++) dataSuccess[c] = attempts[c] = collided[c] = envWeight[c] = 0;
   const envLength = env[0].length;
   for (let c = 0; c < C; c++) {
     env[c].fill(0);
@@ -393,7 +385,8 @@ function runState(
     first = Math.min(first, mb.listenerOffset, mb.special ? mb.specialOffset : Infinity);
     last = Math.max(last, mb.listenerOffset + mb.listener.p.length, mb.special ? mb.specialOffset + mb.special.p.length : -Infinity);
   }
-  const finalOthers = zone.finalOthers.fill(0);
+  const finalOthers = zone.finalOthers;
+  for (let c = 0; c < C; c++) finalOthers[c] = 0;
   let leftover = 0; // P(nobody has sent) when the tables end: the zones outlast them
   for (let c = 0; c < C; c++) {
     const mb = members[c];
@@ -407,9 +400,11 @@ function runState(
     let alive = 1;
     let still = 1;
     if (t > first) {
-      z0.set(z1);
-      r0.set(r1);
-      e0.set(e1);
+      for (let c = 0; c < C; c++) {
+        z0[c] = z1[c];
+        r0[c] = r1[c];
+        e0[c] = e1[c];
+      }
     }
     for (let c = 0; c < C; c++) {
       const mb = members[c];
@@ -519,7 +514,8 @@ function runState(
   // The listeners' environment beyond the horizon: the others are still silent, and will send later.
   for (let c = 0; c < C; c++) env[c][envLength - 1] += finalOthers[c];
   // Normalise the next-state law (the horizon leaves at most HORIZON_EPSILON unaccounted).
-  const total = next.reduce((a, b) => a + b, 0);
+  let total = 0;
+  for (let i = 0; i < next.length; i++) total += next[i];
   for (let i = 0; i < next.length; i++) next[i] /= total;
   for (let c = 0; c < C; c++) {
     dataSuccess[c] /= total;
@@ -697,12 +693,6 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   });
 }
 
-/** Jump-length terms of the renewal tail beyond a table (H is followed at most this far). */
-const RENEWAL_DEPTH = 256;
-/** H(d) within this of 1/μ counts as settled. */
-const RENEWAL_SETTLED = 1e-9;
-/** H of listenerLaw, overwritten by every call (the solver runs to the end once started: no reentry). */
-const RENEWAL_SCRATCH = new Float64Array(RENEWAL_DEPTH);
 
 /**
  * The listener law R_c from its entries E (counters of stations that had just
@@ -756,24 +746,18 @@ function listenerLaw(entries: Float64Array, tailMass: number, tailMoment: number
   if (tailMass > 0) {
     // The jump law given a move: f(i) = env(r) ÷ stay at i = r + shift, r0 ≤ r ≤ the last zone kept
     // (whose slot holds all later zones: counted there, a little short).
-    const top = reach + shift;
+    // c = Σ_d (H(d) − 1/μ) = E[X(X − 1)] ÷ 2μ² for the jump X (the constant term of the renewal
+    // generating function 1/(1 − f̂(z)) at z = 1; an Abel sum where the jumps are periodic).
     let mu = 0;
-    for (let r = r0; r <= reach; r++) mu += env[ENV_SHIFT + r] * (r + shift);
-    mu /= stay;
-    const H = RENEWAL_SCRATCH;
-    H[0] = 1;
-    let c = H[0] - 1 / mu;
-    // H(d) − 1/μ dies out geometrically: stop once `top` terms in a row are within RENEWAL_SETTLED.
-    let settled = 0;
-    let depth = 1;
-    for (; depth < RENEWAL_DEPTH && settled < top; depth++) {
-      let h = 0;
-      for (let i = 1, e = ENV_SHIFT + r0; i <= Math.min(depth, top); i++, e++) h += env[e] * H[depth - i];
-      H[depth] = h / stay;
-      c += H[depth] - 1 / mu;
-      settled = Math.abs(H[depth] - 1 / mu) < RENEWAL_SETTLED ? settled + 1 : 0;
+    let m2 = 0;
+    for (let r = r0; r <= reach; r++) {
+      const x = r + shift;
+      mu += env[ENV_SHIFT + r] * x;
+      m2 += env[ENV_SHIFT + r] * x * (x - 1);
     }
-    work.done += depth * (top + 2);
+    mu /= stay;
+    m2 /= stay;
+    const c = m2 / (2 * mu * mu);
     let m = tailMass;
     for (let k = K; k < KE; k++) {
       u[k] = Math.max(0, (m / mu + c * entries[k]) / stay);
@@ -949,9 +933,33 @@ interface Buffers {
   readonly env: readonly Float64Array[];
   /** Per collision state and class: its colliders' count law. */
   readonly counts: readonly Float64Array[];
+  /**
+   * Rings of iterate-sized vectors for the fixed point: the sweeps' images (the accelerator keeps
+   * ANDERSON_DEPTH + 1 of them, and the check sweep adds one), the residuals it keeps, and the next
+   * iterates (the one being swept, and the one being formed).
+   */
+  readonly images: Ring;
+  readonly residuals: Ring;
+  readonly iterates: Ring;
+}
+
+interface Ring {
+  readonly slots: readonly Float64Array[];
+  at: number;
+}
+
+function ringOf(size: number, length: number): Ring {
+  return { slots: Array.from({ length: size }, () => new Float64Array(length)), at: 0 };
+}
+
+/** The next slot of a ring (its content is whatever was left in it). */
+function ring(r: Ring): Float64Array {
+  r.at = (r.at + 1) % r.slots.length;
+  return r.slots[r.at];
 }
 
 function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
+  const iterateLength = tables.length * (1 + space.masks.length) + tables.reduce((a, b) => a + b, 0);
   return {
     states: Array.from({ length: space.count }, () => stateBuffersOf(space, tables)),
     zone: zoneScratchOf(tables.length),
@@ -961,6 +969,9 @@ function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
     visits: tables.map((K) => new Float64Array(K + ENTRY_MARGIN)),
     env: tables.map(() => new Float64Array(ENV_SHIFT + REACH_MAX + 3)),
     counts: Array.from({ length: space.masks.length * tables.length }, () => new Float64Array(64)),
+    images: ringOf(ANDERSON_DEPTH + 3, iterateLength),
+    residuals: ringOf(ANDERSON_DEPTH + 2, iterateLength),
+    iterates: ringOf(3, iterateLength),
   };
 }
 
@@ -995,7 +1006,7 @@ interface Setup {
   readonly buffers: Buffers;
 }
 
-function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
+function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Array): Sweep {
   const { channel, space, layout, fresh, delay, aifsMin, buffers } = setup;
   const classes = channel.classes;
   const C = classes.length;
@@ -1020,7 +1031,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work): Sweep {
     outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
   }
   const pi = stationary(outcomes.map((o) => o.next));
-  const image = new Float64Array(layout.length);
+  image.fill(0);
   for (let c = 0; c < C; c++) {
     let a = 0;
     let k = 0;
@@ -1108,7 +1119,7 @@ function project(x: Float64Array, layout: Layout, space: StateSpace, classes: re
  * f = g − x. Solved by the normal equations, lightly regularised (the
  * memory is at most ANDERSON_DEPTH).
  */
-function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[]): Float64Array {
+function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[], next: Float64Array): Float64Array {
   const k = gs.length - 1;
   const m = Math.min(ANDERSON_DEPTH, k);
   const n = gs[k].length;
@@ -1117,9 +1128,15 @@ function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[]):
   // One pass over the iterate for the normal equations: the ΔF columns f_{i+1} − f_i (m at most
   // ANDERSON_DEPTH) are formed entry by entry, each sum still taken in entry order.
   const cols = fs.slice(base, k + 1);
-  const A = Array.from({ length: m }, () => new Float64Array(m));
-  const b = new Float64Array(m);
-  const d = new Float64Array(m);
+  // Plain arrays: m is at most ANDERSON_DEPTH, and small typed arrays cost more to make than to use.
+  const A: number[][] = [];
+  const b: number[] = [];
+  const d: number[] = [];
+  for (let i = 0; i < m; i++) {
+    A.push(new Array<number>(m).fill(0));
+    b.push(0);
+    d.push(0);
+  }
   for (let j = 0; j < n; j++) {
     for (let i = 0; i < m; i++) d[i] = cols[i + 1][j] - cols[i][j];
     for (let i = 0; i < m; i++) {
@@ -1136,7 +1153,7 @@ function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[]):
   }
   for (let i = 0; i < m; i++) A[i][i] += 1e-10 * scale + 1e-300;
   const gamma = solveSmall(A, b);
-  const next = new Float64Array(gs[k]);
+  next.set(gs[k]);
   const g = gs.slice(base, k + 1);
   for (let j = 0; j < n; j++) {
     let v = next[j];
@@ -1147,9 +1164,10 @@ function andersonNext(gs: readonly Float64Array[], fs: readonly Float64Array[]):
 }
 
 /** Gaussian elimination with partial pivoting for the small normal equations. */
-function solveSmall(A: Float64Array[], b: Float64Array): Float64Array {
+function solveSmall(A: number[][], b: number[]): number[] {
   const m = b.length;
-  const M = A.map((row, i) => [...row, b[i]]);
+  const M: number[][] = [];
+  for (let i = 0; i < m; i++) M.push([...A[i], b[i]]);
   for (let col = 0; col < m; col++) {
     let best = col;
     for (let r = col + 1; r < m; r++) if (Math.abs(M[r][col]) > Math.abs(M[best][col])) best = r;
@@ -1161,7 +1179,7 @@ function solveSmall(A: Float64Array[], b: Float64Array): Float64Array {
       for (let c = col; c <= m; c++) M[r][c] -= q * M[col][c];
     }
   }
-  const x = new Float64Array(m);
+  const x = new Array<number>(m).fill(0);
   for (let r = m - 1; r >= 0; r--) {
     let s = M[r][m];
     for (let c = r + 1; c < m; c++) s -= M[r][c] * x[c];
@@ -1212,7 +1230,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   let sweeps = 0;
   for (let sweep = 0; sweep < SWEEP_LIMIT && work.done < WORK_LIMIT; sweep++) {
     sweeps++;
-    last = sweepOnce(setup, x, work);
+    last = sweepOnce(setup, x, work, ring(setup.buffers.images));
     const outlasted = last.outcomes.some((o) => o.leftover > OUTLAST_EPSILON);
     if (outlasted && tables.some((K, i) => K < classes[i].cwMax + 1)) {
       // The zones outlasted a table: double the short tables and go on from the image, the mass beyond
@@ -1242,7 +1260,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     }
     moved = maxDistance(last.image, x);
     if (moved <= MAP_TOLERANCE) break;
-    const f = new Float64Array(x.length);
+    const f = ring(setup.buffers.residuals);
     for (let j = 0; j < f.length; j++) f[j] = last.image[j] - x[j];
     fs.push(f);
     gs.push(last.image);
@@ -1258,24 +1276,13 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     best = Math.min(best, moved);
     // Mixing costs about (m²/2 + 3m) passes over the iterate.
     if (gs.length >= 2) work.done += (ANDERSON_DEPTH * (ANDERSON_DEPTH + 6) * setup.layout.length) / 2;
-    x = gs.length < 2 ? new Float64Array(last.image) : andersonNext(gs, fs);
+    const nextX = ring(setup.buffers.iterates);
+    x = gs.length < 2 ? (nextX.set(last.image), nextX) : andersonNext(gs, fs, nextX);
     project(x, setup.layout, space, classes);
   }
-  let residual = Infinity;
-  if (moved <= MAP_NOISE) {
-    // How far the answer may still be from the fixed point: one plain step more from the image G(x)
-    // gives the map's contraction ρ = |G(G(x)) − G(x)| ÷ |G(x) − x| near it, and the distance left
-    // ≈ step·ρ ÷ (1 − ρ). A step within the map's own precision (MAP_NOISE), or one no shorter than the
-    // last (no contraction to see: two evaluations at the fixed point differ by their rounding of the
-    // horizons), is taken as the distance left itself.
-    const image = new Float64Array((last as Sweep).image);
-    const check = sweepOnce(setup, image, work);
-    sweeps++;
-    const step = maxDistance(check.image, image);
-    const rho = Math.min(RHO_MAX, step / moved);
-    residual = step <= MAP_NOISE || step >= moved ? step : (step * rho) / (1 - rho);
-    last = check;
-  }
+  // The distance left to the fixed point: the last sweep moved every quantity by `moved` (the
+  // accelerated iterate's own residual |G(x) − x|); the answer reported is G(x). Unsettled → Infinity.
+  const residual = moved <= MAP_TOLERANCE ? moved : Infinity;
   const { outcomes, pi, image } = last as Sweep;
   let cycleUs = 0;
   outcomes.forEach((o, s) => (cycleUs += pi[s] * o.cycleUs));
