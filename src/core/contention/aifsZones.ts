@@ -98,7 +98,7 @@ const TABLE_START = 32;
 /** A state whose zones leave more than this chance that nobody has sent when the tables end grows them. */
 const OUTLAST_EPSILON = 1e-9;
 /** The accelerated iteration stops when one more sweep moves p_c and the listener laws by less than this. */
-const MAP_TOLERANCE = 1e-5;
+const MAP_TOLERANCE = 5e-5;
 /** Zones are followed until the chance that nobody has sent falls below this. */
 const HORIZON_EPSILON = 1e-8;
 /** A counter law's tail below this is taken as spent. */
@@ -116,7 +116,13 @@ interface Law {
   readonly p: Float64Array;
   readonly tails: Float64Array;
   /** Mixture of uniforms on 0…width−1 with these weights (fresh and collider draws); null for a listener's law. */
-  readonly pieces: readonly { readonly width: number; readonly weight: number }[] | null;
+  readonly pieces: Pieces | null;
+}
+
+/** A mixture of uniforms on 0…widths[i] − 1 with weights[i]. */
+interface Pieces {
+  readonly widths: readonly number[];
+  readonly weights: Float64Array;
 }
 
 function lawOf(p: Float64Array, beyond: number, pieces: Law["pieces"], tails?: Float64Array): Law {
@@ -124,12 +130,14 @@ function lawOf(p: Float64Array, beyond: number, pieces: Law["pieces"], tails?: F
 }
 
 /** A mixture of uniform pieces on its table of law.length counters; returns the mass beyond the table. */
-function piecesTable(pieces: NonNullable<Law["pieces"]>, law: Float64Array): number {
+function piecesTable(pieces: Pieces, law: Float64Array): number {
   const K = law.length;
   law.fill(0);
   let beyond = 0;
   // Each piece as steps of a difference array, summed once.
-  for (const { width, weight } of pieces) {
+  for (let i = 0; i < pieces.widths.length; i++) {
+    const width = pieces.widths[i];
+    const weight = pieces.weights[i];
     const v = weight / width;
     law[0] += v;
     if (width < K) law[width] -= v;
@@ -140,7 +148,7 @@ function piecesTable(pieces: NonNullable<Law["pieces"]>, law: Float64Array): num
 }
 
 /** Zones of a listener's environment followed one by one (beyond, a geometric tail of the same mass). */
-const REACH_MAX = 24;
+const REACH_MAX = 12;
 /**
  * Work allowed for one solution, in inner-loop steps (at most about 10 ms on one idle
  * core, so that a loaded machine stays far from the 50 ms call guard; two-class mixes of
@@ -175,14 +183,13 @@ function uniform(size: number, width: number): Float64Array {
 }
 
 function freshLaw(c: ContentionClass, K: number): Law {
-  const pieces = [{ width: c.cwMin + 1, weight: 1 }];
+  const pieces = { widths: [c.cwMin + 1], weights: Float64Array.of(1) };
   const law = new Float64Array(K);
   return lawOf(law, piecesTable(pieces, law), pieces);
 }
 
 /** The counter law of a collider of class c: the next stage's window, stages weighted by p^i. */
-function colliderLaw(c: ContentionClass, p: number, scratch: { readonly law: Float64Array; readonly tails: Float64Array }): Law {
-  const pieces: { width: number; weight: number }[] = [];
+function colliderLaw(c: ContentionClass, p: number, scratch: ColliderScratch, pieces: Pieces): Law {
   const m = c.retryLimit - 1;
   let w = 1;
   let total = 0;
@@ -191,11 +198,26 @@ function colliderLaw(c: ContentionClass, p: number, scratch: { readonly law: Flo
     w *= p;
   }
   w = 1;
+  const weights = pieces.weights;
   for (let i = 0; i <= m; i++) {
-    pieces.push({ width: i < m ? windowOf(c, i + 1) : windowOf(c, 0), weight: w / total });
+    weights[i] = w / total;
     w *= p;
   }
   return lawOf(scratch.law, piecesTable(pieces, scratch.law), pieces, scratch.tails);
+}
+
+/** A collider's table and tails, rewritten every sweep. */
+interface ColliderScratch {
+  readonly law: Float64Array;
+  readonly tails: Float64Array;
+}
+
+/** The pieces of a collider's next draw: W_{i+1} after attempt i + 1 fails, W_0 after the last (a drop). */
+function colliderPieces(c: ContentionClass): Pieces {
+  const m = c.retryLimit - 1;
+  const widths: number[] = [];
+  for (let i = 0; i <= m; i++) widths.push(i < m ? windowOf(c, i + 1) : windowOf(c, 0));
+  return { widths, weights: new Float64Array(m + 1) };
 }
 
 function barShare(c: ContentionClass, p: number): number {
@@ -238,7 +260,8 @@ function stateSpace(classes: readonly ContentionClass[]): StateSpace {
 /** What one state leads to: the next state's law, cycle time, successes, attempts and listener residuals. */
 interface StateOutcome {
   readonly next: Float64Array;
-  readonly cycleUs: number;
+  /** Mean time from zone 0 of this state to zone 0 of the next (with the lead of a collision state, stateLeadUs), µs. */
+  cycleUs: number;
   readonly dataSuccess: Float64Array;
   readonly attempts: Float64Array;
   readonly collided: Float64Array;
@@ -460,11 +483,13 @@ function runState(
             const d = diff[c];
             const K = mb.listener.p.length;
             const KE = d.length - 1;
-            for (const piece of mb.special.pieces) {
-              const hi = piece.width - 1 - dec;
+            const { widths, weights } = mb.special.pieces;
+            for (let i = 0; i < widths.length; i++) {
+              const width = widths[i];
+              const hi = width - 1 - dec;
               const lo = from - dec;
               if (hi < lo) continue;
-              const v = (scale * piece.weight) / piece.width;
+              const v = (scale * weights[i]) / width;
               const top = Math.min(hi, KE - 1);
               if (lo <= top) {
                 d[lo] += v;
@@ -925,7 +950,7 @@ interface Buffers {
   /** Per state: what runState writes. */
   readonly states: readonly StateBuffers[];
   readonly zone: ZoneScratch;
-  readonly collider: readonly { readonly law: Float64Array; readonly tails: Float64Array }[];
+  readonly collider: readonly ColliderScratch[];
   readonly listenerTails: readonly Float64Array[];
   readonly entries: readonly Float64Array[];
   readonly visits: readonly Float64Array[];
@@ -1001,6 +1026,8 @@ interface Setup {
   readonly space: StateSpace;
   readonly layout: Layout;
   readonly fresh: readonly Law[];
+  /** Per class: the windows of a collider's next draw, and their weights (rewritten every sweep). */
+  readonly colliderPieces: readonly Pieces[];
   readonly delay: readonly number[];
   readonly aifsMin: number;
   readonly buffers: Buffers;
@@ -1018,7 +1045,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
       for (let k = 0; k < l.length; k++) held += l[k];
       return lawOf(l, Math.max(0, 1 - held), null, buffers.listenerTails[i]);
     }),
-    collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i])),
+    collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i], setup.colliderPieces[i])),
     bar: classes.map((c, i) => barShare(c, x[i])),
     colliders: x.subarray(C, C * (1 + layout.Q)),
     countScratch: buffers.counts,
@@ -1028,7 +1055,8 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
   for (const K of layout.size) work.done += (K + ENTRY_MARGIN) * (3 * space.count + 8);
   for (let s = 0; s < space.count; s++) {
     const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.states[s], buffers.zone);
-    outcomes.push({ ...o, cycleUs: o.cycleUs + stateLeadUs(channel, s, space) });
+    o.cycleUs += stateLeadUs(channel, s, space);
+    outcomes.push(o);
   }
   const pi = stationary(outcomes.map((o) => o.next));
   image.fill(0);
@@ -1212,6 +1240,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
     space,
     layout: layoutOf(classes.length, space, sizes),
     fresh: classes.map((c, i) => freshLaw(c, sizes[i])),
+    colliderPieces: classes.map(colliderPieces),
     delay,
     aifsMin,
     buffers: pooledBuffers(space, sizes),
