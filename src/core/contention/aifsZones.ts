@@ -280,6 +280,8 @@ interface StateOutcome {
   readonly colliders: Float64Array;
   /** The chance that nobody had sent when the counter tables ended (0 when the zones ended first). */
   readonly leftover: number;
+  /** The state's members (whose specials left residuals). */
+  readonly members: readonly Member[];
 }
 
 /**
@@ -392,7 +394,7 @@ function runState(
   const envLength = env[0].length;
   for (let c = 0; c < C; c++) {
     env[c].fill(0);
-    diff[c].fill(0);
+    if (members[c].special !== null) diff[c].fill(0); // read only where there are specials (sweepOnce)
     beyond[c].fill(0);
     const mb = members[c];
     for (let i = 0; i < mb.weights.length; i++) envWeight[c] += mb.weights[i] * (mb.n - mb.kMin - i);
@@ -548,7 +550,7 @@ function runState(
     collided[c] /= total;
   }
   for (let i = 0; i < colliders.length; i++) colliders[i] /= total;
-  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders, leftover };
+  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders, leftover, members };
 }
 
 /** 1 + 2 + … + x. */
@@ -1063,18 +1065,18 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
   for (let c = 0; c < C; c++) {
     let a = 0;
     let k = 0;
-    outcomes.forEach((o, s) => {
-      a += pi[s] * o.attempts[c];
-      k += pi[s] * o.collided[c];
-    });
+    for (let s = 0; s < outcomes.length; s++) {
+      a += pi[s] * outcomes[s].attempts[c];
+      k += pi[s] * outcomes[s].collided[c];
+    }
     image[c] = a > 0 ? k / a : 0;
   }
   for (let q = 0; q < layout.Q; q++) {
     let mass = 0;
-    outcomes.forEach((o, s) => (mass += pi[s] * o.next[C + q]));
+    for (let s = 0; s < outcomes.length; s++) mass += pi[s] * outcomes[s].next[C + q];
     for (let c = 0; c < C; c++) {
       let e = 0;
-      outcomes.forEach((o, s) => (e += pi[s] * o.colliders[q * C + c]));
+      for (let s = 0; s < outcomes.length; s++) e += pi[s] * outcomes[s].colliders[q * C + c];
       image[C + q * C + c] = mass > 0 ? e / mass / classes[c].stations : x[C + q * C + c];
     }
   }
@@ -1089,7 +1091,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
       const o = outcomes[s];
       const w = pi[s];
       const r = o.residualDiff[i];
-      for (let k = 0; k < entries.length; k++) entries[k] += w * r[k];
+      if (o.members[i].special !== null) for (let k = 0; k < entries.length; k++) entries[k] += w * r[k]; // else all 0
       const e = o.env[i];
       for (let k = 0; k < env.length; k++) env[k] += w * e[k];
       weight += w * o.envWeight[i];
