@@ -90,6 +90,8 @@ export interface MixResult {
   readonly sweeps: number;
   /** Work spent, in inner-loop steps (bounded by the work limit). */
   readonly work: number;
+  /** All stations alike (one class, or the same settings given twice): solved by saturation.ts. */
+  readonly oneClass: boolean;
 }
 
 const SWEEP_LIMIT = 200;
@@ -1229,6 +1231,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
       residual: 0,
       sweeps: 0,
       work: 0,
+      oneClass: true,
     };
   }
   const space = stateSpace(classes);
@@ -1328,5 +1331,5 @@ function solveDistinct(channel: ContentionChannel): MixResult {
       airtimeShare: (successes * (c.successUs + aifsMin)) / cycleUs,
     };
   });
-  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done };
+  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done, oneClass: false };
 }
