@@ -897,15 +897,15 @@ function settingsKey(c: ContentionClass): string {
  * with the same settings (the same access category given twice) are solved
  * as one and shared out by stations: their stations are alike.
  */
-export function edcaSaturation(channel: ContentionChannel): MixResult {
+export function edcaSaturation(channel: ContentionChannel, options: SolverOptions = {}): MixResult {
   const keys = channel.classes.map(settingsKey);
   const distinct = [...new Set(keys)];
-  if (distinct.length === channel.classes.length) return solveDistinct(channel);
+  if (distinct.length === channel.classes.length) return solveDistinct(channel, options);
   const merged = distinct.map((k) => {
     const members = channel.classes.filter((_, i) => keys[i] === k);
     return { ...members[0], stations: members.reduce((a, c) => a + c.stations, 0) };
   });
-  const solved = solveDistinct({ ...channel, classes: merged });
+  const solved = solveDistinct({ ...channel, classes: merged }, options);
   return {
     ...solved,
     classes: channel.classes.map((c, i) => {
@@ -1220,7 +1220,13 @@ function solveSmall(A: number[][], b: number[]): number[] {
   return x;
 }
 
-function solveDistinct(channel: ContentionChannel): MixResult {
+/** For tests and studies: a smaller work limit, or tables that start larger (CWmax + 1 = exact, no renewal tail). */
+export interface SolverOptions {
+  readonly workLimit?: number;
+  readonly tableStart?: number;
+}
+
+function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixResult {
   const classes = channel.classes;
   if (classes.length === 1) {
     const s = saturation(channel);
@@ -1239,7 +1245,8 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
   const work: Work = { done: 0 };
-  let tables = classes.map((c) => Math.min(c.cwMax + 1, TABLE_START));
+  let tables = classes.map((c) => Math.min(c.cwMax + 1, options.tableStart ?? TABLE_START));
+  const workLimit = options.workLimit ?? WORK_LIMIT;
   const setupOf = (sizes: readonly number[]): Setup => ({
     channel,
     space,
@@ -1262,7 +1269,7 @@ function solveDistinct(channel: ContentionChannel): MixResult {
   let moved = Infinity;
   let best = Infinity;
   let sweeps = 0;
-  for (let sweep = 0; sweep < SWEEP_LIMIT && work.done < WORK_LIMIT; sweep++) {
+  for (let sweep = 0; sweep < SWEEP_LIMIT && work.done < workLimit; sweep++) {
     sweeps++;
     last = sweepOnce(setup, x, work, ring(setup.buffers.images));
     const outlasted = last.outcomes.some((o) => o.leftover > OUTLAST_EPSILON);

@@ -179,22 +179,32 @@ describe("EDCAMIX", () => {
   it("refuses counts that add up to 0", () => valueError(() => edcaMix(HE, "VO, BE", [[0, 0]], 1500), "counts"));
   it("refuses counts that add up to more than 1000", () => valueError(() => edcaMix(HE, "VO, BE", [[600, 600]], 1500), "counts"));
   it("refuses a missing access list", () => valueError(() => edcaMix(HE, null, [[2]], 1500), "access_list"));
-  // Long windows on both sides drain slowly: the fixed point is stopped by its work limit and, unsettled, refused.
-  it("answers #N/A naming counts when the mix does not settle within the model's work limit", () => {
-    expect(() => edcaMix(HE, "BE, BK", "20, 12", 1500)).toThrow(/^counts: .*did not settle/);
+  // Where the mix model stops agreeing with the simulator (catalog.ts mixOutsideModel; reference runs of our
+  // seeded simulator, 4 seeds × 200 000 busy periods, HE MCS7 20 MHz GI0.8, 1500 bytes):
+  // 20 VO collide on 99 % of their attempts: simulator 2.71 Mb/s, model 2.10 (−22 %).
+  it("answers #N/A naming counts for a class that collides on more than 97 % of its attempts", () => {
+    expect(() => edcaMix(HE, "VO, BE", "20, 1", 1500)).toThrow(/^counts: 20 saturated VO stations collide on 99 %/);
+    expect(() => edcaMix(HE, "VO, VI, BE", "10, 10, 10", 1500)).toThrow(/^counts: 10 saturated VI stations collide/);
   });
-  // Beyond the mix model's checked range (scripts/contention-sweep.ts against the seeded simulator, seeds 1000-1001,
-  // 100 000 busy periods each): BE beside 5 VO, simulator 0.18 Mb/s at p 0.78, model 0.11 at p 0.83 (-40 %).
-  it("answers #N/A naming counts for a deferred class that collides on more than 75 % of its attempts", () => {
-    expect(() => edcaMix(HE, "VO, BE", "5, 1", 1500)).toThrow(/^counts: the 1 BE stations wait a longer AIFS and collide on 83 %/);
-    expect(() => edcaMix(HE, "VI, BE", "10, 3", 1500)).toThrow(/^counts: the 3 BE stations wait a longer AIFS/);
+  // 10 VO (p 0.92) and 20 VI (p 0.93) stay within 2 %: answered.
+  it("answers crowded voice and video up to p 0.97", () => {
+    expect(edcaMix(HE, "VO, BE", "10, 3", 1500)[0].goodputMbps).toBeGreaterThan(15);
+    expect(edcaMix(HE, "VI, BE", "20, 1", 1500)[0].goodputMbps).toBeGreaterThan(15);
   });
-  // 2 VO + 1 BE: simulator BE 2.42 Mb/s, model 2.78 (+15 %); 2 VO + 3 BE: 5.56 against 6.14 (+11 %).
-  it("answers #N/A naming counts for two or more VO stations beside three or fewer deferred stations", () => {
-    expect(() => edcaMix(HE, "VO, BE", "2, 1", 1500)).toThrow(/^counts: 2 VO stations with a first window of 4 slots/);
-    expect(() => edcaMix(HE, "VO, BE", "2, 3", 1500)).toThrow(/^counts: 2 VO stations/);
-    expect(edcaMix(HE, "VO, BE", "1, 3", 1500)[1].goodputMbps).toBeGreaterThan(0);
-    expect(edcaMix(HE, "VO, BE", "2, 8", 1500)[1].goodputMbps).toBeGreaterThan(0);
+  // BE beside 5 VO: simulator 1.18 Mb/s at p 0.82, model 1.02 at p 0.83 (−14 %); beside 1 VO + 3 VI: 3.45 against 3.16.
+  it("answers #N/A naming counts for a deferred class above p 0.75 that still carries 0.5 Mb/s", () => {
+    expect(() => edcaMix(HE, "VO, BE", "5, 10", 1500)).toThrow(/^counts: the 10 BE stations wait a longer AIFS and collide on 83 %/);
+    expect(() => edcaMix(HE, "VO, VI, BE", "1, 3, 20", 1500)).toThrow(/^counts: the 20 BE stations wait a longer AIFS/);
+  });
+  // The same shortfall under 0.5 Mb/s is under 0.1 Mb/s: 5 VO + 1 BE, simulator 0.15 Mb/s, model 0.13.
+  it("answers a deferred class above p 0.75 that carries less than 0.5 Mb/s", () => {
+    const be = edcaMix(HE, "VO, BE", "5, 1", 1500)[1].goodputMbps;
+    expect(be).toBeGreaterThan(0.05);
+    expect(be).toBeLessThan(0.5);
+  });
+  it("answers the mixes an earlier model refused: 2 VO beside 1 or 3 BE, BE beside BK", () => {
+    expect(edcaMix(HE, "VO, BE", "2, 1", 1500)[1].goodputMbps).toBeGreaterThan(2);
+    expect(edcaMix(HE, "BE, BK", "20, 12", 1500)[1].goodputMbps).toBeGreaterThan(0.5);
   });
   it("refuses BAR when a class is DCF", () => valueError(() => edcaMix(HE, "VO, DCF", "1, 1", 1500, "auto", "none", "BAR"), "mac_options"));
 

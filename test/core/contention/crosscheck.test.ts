@@ -10,7 +10,8 @@
  * p within 0.02; CONTENTION within 0.02. With 20 000 busy periods per seed a
  * run's own sampling error is about 0.5 % on goodput and 0.005 on p.
  * EDCAMIX per class within 5 % (0.1 Mb/s below 2 Mb/s) and p within 0.02,
- * on the mixes where the model holds (DEVELOPERS.md lists where it does not).
+ * plus the reference's own sampling error, on the mixes it answers
+ * (DEVELOPERS.md lists where it refuses and where it is known to read low).
  */
 import { saturation } from "../../../src/core/contention/saturation";
 import { edcaSaturation } from "../../../src/core/contention/aifsZones";
@@ -80,33 +81,108 @@ describe("COLLIDE against the simulator", () => {
 });
 
 type Mix = [string, number][];
+/**
+ * Mixes of the families issue 11 names (VO + BE, VI + BE, three classes, 1–20 stations each) that EDCAMIX
+ * answers, and two of BE beside BK. Where a mix is refused (#N/A), contention.test.ts says so.
+ */
 const MIXES: Mix[] = [
   [["VO", 1], ["BE", 1]],
-  [["VO", 1], ["BE", 10]],
+  [["VO", 1], ["BE", 20]],
+  [["VO", 2], ["BE", 3]],
   [["VO", 2], ["BE", 20]],
-  [["VI", 1], ["BE", 3]],
-  [["VI", 2], ["BE", 10]],
+  [["VO", 5], ["BE", 3]],
+  [["VO", 10], ["BE", 3]],
+  [["VI", 1], ["BE", 10]],
+  [["VI", 2], ["BE", 1]],
   [["VI", 5], ["BE", 20]],
+  [["VI", 10], ["BE", 3]],
+  [["VI", 20], ["BE", 1]],
+  [["VO", 1], ["VI", 1], ["BE", 1]],
   [["VO", 2], ["VI", 2], ["BE", 5]],
+  [["VO", 5], ["VI", 5], ["BE", 10]],
+  [["BE", 1], ["BK", 3]],
+  [["BE", 2], ["BK", 10]],
 ];
+/** Seeds and busy periods of the reference: a class with a small share needs long runs (its own error enters the check). */
+const MIX_SEEDS = [21, 22, 23, 24];
+const MIX_BUSY = 150_000;
+
+function simulatedMix(channel: ContentionChannel): { g: number[]; gErr: number[]; p: number[]; pErr: number[] } {
+  const runs = MIX_SEEDS.map((seed) => simulate(channel, seed, { busySlots: MIX_BUSY }));
+  const stat = (f: (r: SimulationResult) => number): [number, number] => {
+    const xs = runs.map(f);
+    const m = xs.reduce((a, b) => a + b, 0) / xs.length;
+    const sd = Math.sqrt(xs.reduce((a, b) => a + (b - m) ** 2, 0) / (xs.length - 1));
+    return [m, sd / Math.sqrt(xs.length)];
+  };
+  const g = channel.classes.map((_, i) => stat((r) => r.classes[i].goodputMbps));
+  const p = channel.classes.map((_, i) => stat((r) => r.classes[i].collisionProbability));
+  return { g: g.map((x) => x[0]), gErr: g.map((x) => x[1]), p: p.map((x) => x[0]), pErr: p.map((x) => x[1]) };
+}
 
 describe("EDCAMIX's model against the simulator", () => {
+  // Tolerance: issue 11's (5 %, or 0.1 Mb/s under 2 Mb/s; p within 0.02) plus twice the reference's own
+  // standard error over its seeds (a class with a 2 % share has a few thousand successes per run).
   for (const mix of MIXES) {
     it(`agrees per class for ${mix.map(([a, n]) => `${n} ${a}`).join(" + ")} (HE MCS7, A-MPDU per class TXOP)`, () => {
       const channel = contentionChannel("HE MCS7 1SS 20MHz 5GHz", mix.map(([access, stations]) => ({ access, stations })), 1500);
       const model = edcaSaturation(channel);
-      const sim = simulated(channel, 100_000);
+      expect(model.residual).toBeLessThanOrEqual(1e-4);
+      const sim = simulatedMix(channel);
       model.classes.forEach((c, i) => {
-        const s = sim.classes[i];
-        if (s < 2) expect(Math.abs(c.goodputMbps - s)).toBeLessThanOrEqual(0.1);
-        else expect(Math.abs(c.goodputMbps / s - 1)).toBeLessThanOrEqual(0.05);
-        expect(Math.abs(c.p - sim.p[i])).toBeLessThanOrEqual(0.02);
+        const s = sim.g[i];
+        const allowed = (s < 2 ? 0.1 : 0.05 * s) + 2 * sim.gErr[i];
+        expect(Math.abs(c.goodputMbps - s)).toBeLessThanOrEqual(allowed);
+        expect(Math.abs(c.p - sim.p[i])).toBeLessThanOrEqual(0.02 + 2 * sim.pErr[i]);
       });
     });
   }
 
+  // Known shortfalls (DEVELOPERS.md): a deferred class beside several small-window stations reads low, by up
+  // to about 8 % where EDCAMIX still answers. Reference (4 seeds × 200 000 busy periods, our runs):
+  // 2 VO + 1 BE, BE 2.64 Mb/s; 5 VI + 3 BE, BE 2.14 Mb/s.
+  it("reads best effort beside 2 VO or 5 VI stations low, by less than 9 %", () => {
+    for (const [mix, sim] of [
+      [[["VO", 2], ["BE", 1]], 2.644],
+      [[["VI", 5], ["BE", 3]], 2.141],
+    ] as [Mix, number][]) {
+      const channel = contentionChannel("HE MCS7 1SS 20MHz GI0.8 5GHz", mix.map(([access, stations]) => ({ access, stations })), 1500);
+      const be = edcaSaturation(channel).classes[1].goodputMbps;
+      expect(be).toBeLessThan(sim);
+      expect(be).toBeGreaterThan(0.91 * sim);
+    }
+  });
+
   it("uses the single-class model for one class", () => {
     const one = contentionChannel("OFDM 54Mbps 5GHz", [{ access: "BE", stations: 10 }], 1500);
     expect(edcaSaturation(one).classes[0].goodputMbps).toBe(saturation(one).goodputMbps);
+  });
+});
+
+describe("EDCAMIX's counter tables", () => {
+  // The solver holds each counter law on its first 32 counters and the rest as a renewal tail (aifsZones.ts,
+  // listenerLaw). With tables of all CWmax + 1 counters there is no tail and the listener laws are exact:
+  // both must give the same answer to within the solver's tolerance.
+  const mixes: Mix[] = [
+    [["VO", 2], ["BE", 10]],
+    [["VI", 1], ["BE", 20]],
+    [["VO", 1], ["VI", 1], ["BE", 3]],
+    [["BE", 2], ["BK", 3]],
+  ];
+  for (const mix of mixes) {
+    it(`gives the exact tables' answer with the renewal tail for ${mix.map(([a, n]) => `${n} ${a}`).join(" + ")}`, () => {
+      const channel = contentionChannel("HE MCS7 1SS 20MHz 5GHz", mix.map(([access, stations]) => ({ access, stations })), 1500);
+      const tail = edcaSaturation(channel);
+      const exact = edcaSaturation(channel, { tableStart: 1024 });
+      tail.classes.forEach((c, i) => {
+        expect(Math.abs(c.goodputMbps / exact.classes[i].goodputMbps - 1)).toBeLessThan(1e-3);
+        expect(Math.abs(c.p - exact.classes[i].p)).toBeLessThan(2e-4);
+      });
+    });
+  }
+
+  it("reports an unsettled mix as such (the catalog then answers #N/A)", () => {
+    const channel = contentionChannel("HE MCS7 1SS 20MHz 5GHz", [{ access: "VO", stations: 2 }, { access: "BE", stations: 10 }], 1500);
+    expect(edcaSaturation(channel, { workLimit: 1000 }).residual).toBe(Infinity);
   });
 });
