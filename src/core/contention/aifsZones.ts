@@ -25,47 +25,64 @@
  * states: the mean-field decoupling is only across stations, not in time.
  *
  * State at the start of an idle period (zone 0): the kind of the last busy
- * period — a success of class a (S_a), or a collision of the pair (a, b)
- * (C_ab; collisions of three or more are shared out over the pairs in
- * proportion) — and, for every station, its counter, independent across
- * stations with distributions
- *   F^S_c   uniform on 0…CWmin_c             (the station that just succeeded)
- *   F^C_c   Σ_i π_i·uniform on 0…W_next(i)−1 (a collider; π_i ∝ p_c^i, i = 0…m;
- *                                             W_next = W_{i+1}, or W_0 after a drop)
- *   R_c     the law of a listener           (solved for)
- * After C_ab zone 0 is the longer collider's PPDU end + timeout + AIFS_min;
- * the shorter collider resumes after its own timeout or the end of the
- * longer PPDU, whichever is later (so it may start zones early), and the
- * listeners EIFS − DIFS after the PPDU (10.3.2.3.7).
- * Group g (count n_g, offset o_g, counter law D_g): it sends at zone t with
- * P_g(t) = D_g(t − o_g); given silence before t its hazard is
- * h_g(t) = P_g(t) ÷ S_g(t−1), S_g the survival. With A(t) = Π_g S_g(t−1)^{n_g}:
- *   P(idle at t)          = A(t)·Π_g (1 − h_g)^{n_g}
- *   P(class c alone at t) = A(t)·Σ_{g∈c} n_g h_g (1 − h_g)^{n_g − 1}·Π_{g'≠g} (1 − h_{g'})^{n_{g'}}
- *   collisions: the rest; their length is the longest colliding PPDU (classes
- *               sorted by it, as "nobody longer sends" products)
- * A station that did not send at t keeps k' = k − (t − o_g + 1) (EDCA) or
- * k − (t − o_g) (DCF) for t ≥ o_g, k' = k before its zone. R_c is the
- * stationary law of a listener's counter: its entries are the counters of
- * stations that had just sent and did not send at the next busy period,
- * and it moves down by the decrements its environment (the others' first
- * busy zone) deals it, computed in one pass from the top counter down
- * (listenerLaw). The kind of the next busy period gives the transition
- * matrix of the state chain; its stationary law weights the cycle times
- * and successes:
+ * period — a success of class a (S_a), or a collision among the classes of
+ * a set S (C_S; one class alone needs two of its stations) — and, for every
+ * station, its counter, independent across stations given the state. In
+ * each state a class's n_c stations are K "specials" and n_c − K listeners:
+ *   S_a: class a's one special is the station that just succeeded, on
+ *        F^S_a = uniform on 0…CWmin_a; no specials elsewhere;
+ *   C_S: the colliders of each class in S, on
+ *        F^C_c = Σ_i π_i·uniform on 0…W_next(i)−1 (π_i ∝ p_c^i, i = 0…m;
+ *        W_next = W_{i+1}, or W_0 after a drop); K is random: kMin + a
+ *        binomial with the mean the zones left (E[colliders of c | C_S],
+ *        part of the iterate), kMin = 2 for S = {c}, else 1 — whether a class
+ *        stays silent, E[a^K·b^(n−K)], is convex in K, so its law matters;
+ *   R_c: every listener, on the listener law (solved for).
+ * After C_S zone 0 is the longest collider's PPDU end + its timeout +
+ * AIFS_min; the other colliders resume after their own timeout or the end of
+ * the longest PPDU, whichever is later (so they may start zones early), and
+ * the listeners EIFS − DIFS after the PPDU (10.3.2.3.7).
+ * Per zone t and class c, with a and b the specials' and the listeners'
+ * survival before t (a', b' through t) and p_s, p_l their point masses at t,
+ * the sums over K (countSums) Z = Σ_k w_k a^k b^(n−k) (the class silent),
+ * R = ∂Z/∂a per special, E = ∂Z/∂b per listener give, with O_c = Π_{c'≠c} Z_c':
+ *   P(nobody before t)          = Π_c Z_c
+ *   P(one station of c alone)   = (p_s·R'_c + p_l·E'_c)·O'_c
+ *   P(collision among S)        = Π_{c∈S}(Z_c − Z'_c)·Π_{c∉S} Z'_c (less the lone sender when S = {c})
+ *   E[senders of c at t]        = (p_s·R_c + p_l·E_c)·O_c
+ * and the collision lasts the longest PPDU in S. A station that did not
+ * send at t keeps k' = k − (t − o + 1) (EDCA) or k − (t − o) (DCF) for t ≥ o,
+ * k' = k before its zone. R_c is the stationary law of a listener's counter:
+ * its entries are the counters of specials that did not send at the next
+ * busy period, and it moves down by the decrements its environment (the
+ * others' first busy zone) deals it, computed in one pass from the top
+ * counter down (listenerLaw). Counter laws are held on tables of their
+ * first 32 counters (doubled when a state's zones outlast them); beyond a
+ * table a listener's counter only moves down, and its visits there follow
+ * the renewal theorem from the entries' mass and first moment above the
+ * table (listenerLaw; a test checks it against tables of all CWmax + 1
+ * counters). The kind of the next busy period gives the transition matrix
+ * of the state chain, solved directly (stationary); its stationary law
+ * weights the cycle times and successes:
  *   cycle = t·σ + (success exchange, or PPDU + timeout) + AIFS_min
  *   S_c   = Σ_states π·P(data success of c)·payload_c ÷ Σ_states π·E[cycle]     (Mb/s)
  *   p_c   = collided attempts of class c ÷ attempts of class c
  * BlockAckReq recovery: a collider's next attempt is a BlockAckReq;
- * listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of
- * their attempts. The whole is a fixed point x = G(x) in x = (p_c, R_c),
- * found by Anderson mixing of the last few sweeps (andersonNext): about 10
- * sweeps where plain iteration took 10–80. It stops when a sweep moves every
- * p_c and entry of R_c by less than 1e-6 (or at a work limit); one plain
- * sweep more then estimates the distance left from the map's contraction,
- * and the catalog refuses an estimate above 1e-4 (or a mix that did not get
- * there within the work limit). With one class EDCAMIX uses
- * saturation.ts, which SATURATE uses.
+ * listeners send one in the share b_c = 1 − 1/Σ_i p_c^i of their attempts.
+ * The whole is a fixed point x = G(x) in x = (p_c, colliders per state as
+ * shares of the class, R_c), found by Anderson mixing of the last few
+ * sweeps (andersonNext): 6–9 sweeps for two classes. It stops when a sweep
+ * moves every entry by less than MAP_TOLERANCE (5e-5: about four
+ * significant digits), reporting that move as the residual; a mix that
+ * does not get there within the work limit reports Infinity and the
+ * catalog refuses it. With one class EDCAMIX uses saturation.ts, which
+ * SATURATE uses.
+ *
+ * What remains of the mean-field decoupling, measured against the
+ * simulator (DEVELOPERS.md): a deferred class beside several small-window
+ * stations reads 5–14 % low, and a class colliding on nearly every attempt
+ * (20 VO, p 0.994) 22 % low; the catalog refuses where that exceeds the
+ * issue's tolerance.
  */
 import type { ContentionChannel, ContentionClass } from "./parameters";
 import { saturation } from "./saturation";
@@ -152,11 +169,11 @@ function piecesTable(pieces: Pieces, law: Float64Array): number {
 /** Zones of a listener's environment followed one by one (beyond, a geometric tail of the same mass). */
 const REACH_MAX = 12;
 /**
- * Work allowed for one solution, in inner-loop steps (at most about 10 ms on one idle
- * core, so that a loaded machine stays far from the 50 ms call guard; two-class mixes of
- * VO or VI with BE take 0.6–1.2e6 and settle, BE beside BK with long windows on both sides
- * does not): the fixed point stops there, and if it has not settled to RESIDUAL_ACCEPTED
- * the catalog answers #N/A rather than an unsettled number.
+ * Work allowed for one solution, in inner-loop steps (a bound on the time a loaded machine
+ * may spend, far from the 50 ms call guard; measured: two-class mixes of VO or VI with BE
+ * take 1.5–4e4, BE beside BK up to 2e5, four classes up to 3.5e5, 10–17 ms with 100–300
+ * stations each): the fixed point stops there, and if it has not settled the catalog
+ * answers #N/A rather than an unsettled number.
  */
 const WORK_LIMIT = 1.5e6;
 export const RESIDUAL_ACCEPTED = 1e-4;
@@ -165,8 +182,6 @@ interface Work {
   done: number;
 }
 
-/** Share of the listeners' environment that may be left out at its far end. */
-const ENV_NEGLIGIBLE = 1e-12;
 /** A listener still silent with everybody else beyond this chance no longer shapes its environment. */
 const LISTENER_HORIZON = 1e-8;
 /** Relative zones r = t − o_g of the listeners' environment sit at r + ENV_SHIFT; every r < 0 (a busy period before the listener's own zone, all alike) in slot 0. */
