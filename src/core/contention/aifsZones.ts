@@ -84,7 +84,7 @@
  * (20 VO, p 0.994) 22 % low; the catalog refuses where that exceeds the
  * issue's tolerance.
  */
-import type { ContentionChannel, ContentionClass } from "./parameters";
+import type { BlockAckRequestExchange, ContentionChannel, ContentionClass } from "./parameters";
 import { saturation } from "./saturation";
 
 export interface ClassResult {
@@ -259,19 +259,30 @@ interface StateSpace {
   readonly masks: readonly number[];
   /** The longest colliding PPDU of each collision state's set, and that class (its timeout follows it). */
   readonly longest: readonly number[];
+  /** The longest BlockAckReq PPDU of each collision state's set when every class in it recovers by BlockAckReq, else 0. */
+  readonly barPpduUs: readonly number[];
+  /** Each collision state's classes in order of their data PPDU, longest first; whether any of them uses BlockAckReq recovery. */
+  readonly byLength: readonly (readonly number[])[];
+  readonly anyBar: readonly boolean[];
 }
 
 function stateSpace(classes: readonly ContentionClass[]): StateSpace {
   const C = classes.length;
   const masks: number[] = [];
   const longest: number[] = [];
+  const barPpduUs: number[] = [];
+  const byLength: number[][] = [];
+  const anyBar: boolean[] = [];
   for (let mask = 1; mask < 1 << C; mask++) {
     const members = classes.map((_, i) => i).filter((i) => mask & (1 << i));
     if (members.length === 1 && classes[members[0]].stations < 2) continue;
     masks.push(mask);
     longest.push(members.reduce((a, b) => (classes[b].collisionPpduUs > classes[a].collisionPpduUs ? b : a)));
+    barPpduUs.push(members.every((i) => classes[i].blockAckReq !== null) ? Math.max(...members.map((i) => (classes[i].blockAckReq as BlockAckRequestExchange).collisionPpduUs)) : 0);
+    byLength.push([...members].sort((a, b) => classes[b].collisionPpduUs - classes[a].collisionPpduUs));
+    anyBar.push(members.some((i) => classes[i].blockAckReq !== null));
   }
-  return { count: C + masks.length, masks, longest };
+  return { count: C + masks.length, masks, longest, barPpduUs, byLength, anyBar };
 }
 
 /** What one state leads to: the next state's law, cycle time, successes, attempts and listener residuals. */
@@ -282,6 +293,9 @@ interface StateOutcome {
   readonly dataSuccess: Float64Array;
   readonly attempts: Float64Array;
   readonly collided: Float64Array;
+  /** Attempts by listeners, and BlockAckReq attempts by specials (BAR recovery: the listeners' share follows from them). */
+  readonly listenerTries: Float64Array;
+  readonly specialBarTries: Float64Array;
   /**
    * Counters (unnormalised) of the stations that had just sent and did not send again — they join the
    * listeners — as difference arrays per class (the caller's buffers, reused across sweeps).
@@ -404,10 +418,10 @@ function runState(
   const classes = channel.classes;
   const C = classes.length;
   const sigma = channel.slotUs;
-  const { next, dataSuccess, attempts, collided, env, envWeight, colliders, residualDiff: diff, beyond } = out;
+  const { next, dataSuccess, attempts, collided, listenerTries, specialBarTries, env, envWeight, colliders, residualDiff: diff, beyond } = out;
   for (let i = 0; i < next.length; i++) next[i] = 0;
   for (let i = 0; i < colliders.length; i++) colliders[i] = 0;
-  for (let c = 0; c < C; c++) dataSuccess[c] = attempts[c] = collided[c] = envWeight[c] = 0;
+  for (let c = 0; c < C; c++) dataSuccess[c] = attempts[c] = collided[c] = listenerTries[c] = specialBarTries[c] = envWeight[c] = 0;
   const envLength = env[0].length;
   for (let c = 0; c < C; c++) {
     env[c].fill(0);
@@ -419,7 +433,7 @@ function runState(
   // Per class: before t (0) and through t (1): Z = P(none of the class sent), R, E (countSums), and
   // o = Π of the other classes' Z; the specials' and the listeners' point masses at t. The sums
   // through t are the next zone's sums before it.
-  const { z0, z1, r0, r1, e0, e1, o0, o1, ps, pl, a1s, b1s, sums } = zone;
+  const { z0, z1, zb, r0, r1, e0, e1, o0, o1, ps, pl, a1s, b1s, sums } = zone;
   let cycle = 0;
   let first = Infinity;
   let last = -Infinity;
@@ -430,6 +444,38 @@ function runState(
   const finalOthers = zone.finalOthers;
   for (let c = 0; c < C; c++) finalOthers[c] = 0;
   let leftover = 0; // P(nobody has sent) when the tables end: the zones outlast them
+  /**
+   * P(the collision among set q at this zone) × its PPDU time on air: the longest PPDU sent, which with
+   * BlockAckReq recovery need not be the longest class's A-MPDU — a class whose senders all send a
+   * BlockAckReq (zb − z1: some sender, no data) is on air only that long. Classes in order of their data
+   * PPDU, longest first: the first with a data sender sets it; if none has one, the longest BlockAckReq.
+   */
+  const collisionAirUs = (q: number, single: number, m: number): number => {
+    const order = space.byLength[q];
+    if (!space.anyBar[q]) return m * classes[order[0]].collisionPpduUs;
+    let outside = 1;
+    for (let c = 0; c < C; c++) if (!(space.masks[q] & (1 << c))) outside *= z1[c];
+    let air = 0;
+    let allBar = outside;
+    for (let j = 0; j < order.length; j++) {
+      const c = order[j];
+      let rest = 1;
+      for (let i = j + 1; i < order.length; i++) rest *= z0[order[i]] - z1[order[i]];
+      air += allBar * (z0[c] - zb[c]) * rest * classes[c].collisionPpduUs;
+      allBar *= zb[c] - z1[c];
+    }
+    air += allBar * space.barPpduUs[q];
+    if (single >= 0) {
+      // Less the lone sender (a success, not a collision), by the kind of PPDU it sent.
+      const mb = members[single];
+      const loneData = (ps[single] * (1 - mb.specialBar) * r1[single] + pl[single] * (1 - mb.listenerBar) * e1[single]) * o1[single];
+      const loneBar = (ps[single] * mb.specialBar * r1[single] + pl[single] * mb.listenerBar * e1[single]) * o1[single];
+      air -= loneData * classes[single].collisionPpduUs + loneBar * space.barPpduUs[q];
+    }
+    // Rounding can leave the split a hair off the mass m: keep it between the shortest and longest PPDU.
+    const shortest = space.barPpduUs[q] > 0 ? Math.min(space.barPpduUs[q], classes[order[order.length - 1]].collisionPpduUs) : classes[order[order.length - 1]].collisionPpduUs;
+    return Math.min(m * classes[order[0]].collisionPpduUs, Math.max(m * shortest, air));
+  };
   for (let c = 0; c < C; c++) {
     const mb = members[c];
     countSums(mb, mb.special ? survivalAt(mb.special, first - mb.specialOffset) : 1, survivalAt(mb.listener, first - mb.listenerOffset), sums);
@@ -462,6 +508,12 @@ function runState(
       z1[c] = sums[0];
       r1[c] = sums[1];
       e1[c] = sums[2];
+      // With BlockAckReq recovery: P(none of c before t, and no data PPDU of c at t) — its senders at t, if
+      // any, all send a BlockAckReq, whose PPDU is far shorter than an A-MPDU's.
+      if (mb.specialBar > 0 || mb.listenerBar > 0) {
+        countSums(mb, a1 + ps[c] * mb.specialBar, b1 + pl[c] * mb.listenerBar, sums);
+        zb[c] = sums[0];
+      } else zb[c] = z1[c];
       alive *= z0[c];
       still *= z1[c];
     }
@@ -491,6 +543,8 @@ function runState(
         }
         const tries = (ps[c] * r0[c] + pl[c] * e0[c]) * o0[c];
         attempts[c] += tries;
+        listenerTries[c] += pl[c] * e0[c] * o0[c];
+        specialBarTries[c] += ps[c] * r0[c] * o0[c] * mb.specialBar;
         collided[c] += Math.max(0, tries - alone);
         // Specials that stay silent while somebody else starts at t join the listeners with k − dec.
         if (mb.special && mb.special.pieces) {
@@ -537,7 +591,7 @@ function runState(
         }
         if (!(m > 0)) continue;
         next[C + q] += m;
-        cycle += m * (zoneUs + classes[space.longest[q]].collisionPpduUs);
+        cycle += m * zoneUs + collisionAirUs(q, single, m);
         for (let c = 0; c < C; c++) {
           if (!(mask & (1 << c))) continue;
           const some = z0[c] - z1[c];
@@ -565,9 +619,11 @@ function runState(
     dataSuccess[c] /= total;
     attempts[c] /= total;
     collided[c] /= total;
+    listenerTries[c] /= total;
+    specialBarTries[c] /= total;
   }
   for (let i = 0; i < colliders.length; i++) colliders[i] /= total;
-  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, residualDiff: diff, env, envWeight, colliders, leftover, members };
+  return { next, cycleUs: cycle / total, dataSuccess, attempts, collided, listenerTries, specialBarTries, residualDiff: diff, env, envWeight, colliders, leftover, members };
 }
 
 /** 1 + 2 + … + x. */
@@ -595,6 +651,8 @@ interface StateBuffers {
   readonly dataSuccess: Float64Array;
   readonly attempts: Float64Array;
   readonly collided: Float64Array;
+  readonly listenerTries: Float64Array;
+  readonly specialBarTries: Float64Array;
   readonly env: Float64Array[];
   readonly envWeight: Float64Array;
   readonly colliders: Float64Array;
@@ -610,6 +668,8 @@ function stateBuffersOf(space: StateSpace, tables: readonly number[]): StateBuff
     dataSuccess: new Float64Array(C),
     attempts: new Float64Array(C),
     collided: new Float64Array(C),
+    listenerTries: new Float64Array(C),
+    specialBarTries: new Float64Array(C),
     // Zones r < 0 together, 0 … REACH_MAX + 1 one by one, and the mass of all later zones in the last slot (listenerLaw).
     env: tables.map(() => new Float64Array(ENV_SHIFT + REACH_MAX + 3)),
     envWeight: new Float64Array(C),
@@ -623,6 +683,7 @@ function stateBuffersOf(space: StateSpace, tables: readonly number[]): StateBuff
 interface ZoneScratch {
   readonly z0: Float64Array;
   readonly z1: Float64Array;
+  readonly zb: Float64Array;
   readonly r0: Float64Array;
   readonly r1: Float64Array;
   readonly e0: Float64Array;
@@ -639,7 +700,7 @@ interface ZoneScratch {
 
 function zoneScratchOf(C: number): ZoneScratch {
   const a = () => new Float64Array(C);
-  return { z0: a(), z1: a(), r0: a(), r1: a(), e0: a(), e1: a(), o0: a(), o1: a(), ps: a(), pl: a(), a1s: a(), b1s: a(), finalOthers: a(), sums: new Float64Array(3) };
+  return { z0: a(), z1: a(), zb: a(), r0: a(), r1: a(), e0: a(), e1: a(), o0: a(), o1: a(), ps: a(), pl: a(), a1s: a(), b1s: a(), finalOthers: a(), sums: new Float64Array(3) };
 }
 
 /**
@@ -942,7 +1003,7 @@ interface Sweep {
 /** The iterate (p, colliders, R_0, R_1, …) as one vector, so that an accelerator can mix iterates. */
 interface Layout {
   readonly C: number;
-  /** Collision states; their expected colliders per class, as shares of its stations, follow p at C + q·C + c. */
+  /** Collision states; their expected colliders per class, as shares of its stations, follow p at C + q·C + c, then the listeners' BlockAckReq share per class at C·(1 + Q) + c. */
   readonly Q: number;
   /** Start of class c's listener table in the vector, and its length K_c. */
   readonly start: readonly number[];
@@ -953,7 +1014,7 @@ interface Layout {
 function layoutOf(C: number, space: StateSpace, tables: readonly number[]): Layout {
   const start: number[] = [];
   const Q = space.masks.length;
-  let at = C * (1 + Q);
+  let at = C * (2 + Q);
   for (const K of tables) {
     start.push(at);
     at += K;
@@ -1003,7 +1064,7 @@ function ring(r: Ring): Float64Array {
 }
 
 function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
-  const iterateLength = tables.length * (1 + space.masks.length) + tables.reduce((a, b) => a + b, 0);
+  const iterateLength = tables.length * (2 + space.masks.length) + tables.reduce((a, b) => a + b, 0);
   return {
     states: Array.from({ length: space.count }, () => stateBuffersOf(space, tables)),
     zone: zoneScratchOf(tables.length),
@@ -1065,7 +1126,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
       return lawOf(l, Math.max(0, 1 - held), null, buffers.listenerTails[i]);
     }),
     collider: classes.map((c, i) => colliderLaw(c, x[i], buffers.collider[i], setup.colliderPieces[i])),
-    bar: classes.map((c, i) => barShare(c, x[i])),
+    bar: classes.map((c, i) => (c.blockAckReq === null ? 0 : x[C * (1 + layout.Q) + i])),
     colliders: x.subarray(C, C * (1 + layout.Q)),
     countScratch: buffers.counts,
   };
@@ -1087,6 +1148,19 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
       k += pi[s] * outcomes[s].collided[c];
     }
     image[c] = a > 0 ? k / a : 0;
+    // BlockAckReq recovery: attempts at backoff stage ≥ 1 are BlockAckReqs, 1 − 1/Σ p^i of all (barShare);
+    // the specials of a collision state send nothing else, so the listeners carry the rest.
+    const at = C * (1 + layout.Q) + c;
+    if (classes[c].blockAckReq === null) image[at] = 0;
+    else {
+      let listened = 0;
+      let specialBars = 0;
+      for (let s = 0; s < outcomes.length; s++) {
+        listened += pi[s] * outcomes[s].listenerTries[c];
+        specialBars += pi[s] * outcomes[s].specialBarTries[c];
+      }
+      image[at] = listened > 0 ? Math.min(1, Math.max(0, (a * barShare(classes[c], image[c]) - specialBars) / listened)) : 0;
+    }
   }
   for (let q = 0; q < layout.Q; q++) {
     let mass = 0;
@@ -1145,6 +1219,10 @@ function project(x: Float64Array, layout: Layout, space: StateSpace, classes: re
       const i = layout.C + q * layout.C + c;
       x[i] = mask & (1 << c) ? Math.min(1, Math.max((single ? 2 : 1) / classes[c].stations, x[i])) : 0;
     }
+  }
+  for (let c = 0; c < layout.C; c++) {
+    const at = layout.C * (1 + layout.Q) + c;
+    x[at] = Math.min(1, Math.max(0, x[at]));
   }
   for (let c = 0; c < layout.C; c++) {
     let total = 0;
@@ -1294,7 +1372,7 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
       const grown = tables.map((K, i) => Math.min(classes[i].cwMax + 1, 2 * K));
       const next = setupOf(grown);
       const y = new Float64Array(next.layout.length);
-      y.set(last.image.subarray(0, classes.length * (1 + space.masks.length)));
+      y.set(last.image.subarray(0, classes.length * (2 + space.masks.length)));
       classes.forEach((_, i) => {
         const old = last!.image.subarray(setup.layout.start[i], setup.layout.start[i] + tables[i]);
         let held = 0;
