@@ -257,8 +257,18 @@ interface StateSpace {
   readonly count: number;
   /** The class set of each collision state, state index C + q. */
   readonly masks: readonly number[];
-  /** The longest colliding PPDU of each collision state's set, and that class (its timeout follows it). */
+  /**
+   * -1: every collision among the set (no BlockAckReq recovery in a mixed set, or one class); v: the
+   * first class in byLength order with a data sender is byLength[v] (those before it sent BlockAckReqs
+   * only); byLength.length: BlockAckReqs only.
+   */
+  readonly variant: readonly number[];
+  /** The class whose PPDU was on air longest (its timeout follows it), that PPDU (µs), and the classes that sent BlockAckReqs only. */
   readonly longest: readonly number[];
+  readonly airUs: readonly number[];
+  readonly barSenders: readonly number[];
+  /** The collision states of each class set, in order. */
+  readonly groups: readonly { readonly mask: number; readonly states: readonly number[] }[];
   /** The longest BlockAckReq PPDU of each collision state's set when every class in it recovers by BlockAckReq, else 0. */
   readonly barPpduUs: readonly number[];
   /** Each collision state's classes in order of their data PPDU, longest first; whether any of them uses BlockAckReq recovery. */
@@ -269,20 +279,50 @@ interface StateSpace {
 function stateSpace(classes: readonly ContentionClass[]): StateSpace {
   const C = classes.length;
   const masks: number[] = [];
+  const variant: number[] = [];
   const longest: number[] = [];
+  const airUs: number[] = [];
+  const barSenders: number[] = [];
   const barPpduUs: number[] = [];
   const byLength: number[][] = [];
   const anyBar: boolean[] = [];
+  const groups: { mask: number; states: number[] }[] = [];
+  const barOf = (i: number): number => (classes[i].blockAckReq as BlockAckRequestExchange).collisionPpduUs;
   for (let mask = 1; mask < 1 << C; mask++) {
     const members = classes.map((_, i) => i).filter((i) => mask & (1 << i));
     if (members.length === 1 && classes[members[0]].stations < 2) continue;
-    masks.push(mask);
-    longest.push(members.reduce((a, b) => (classes[b].collisionPpduUs > classes[a].collisionPpduUs ? b : a)));
-    barPpduUs.push(members.every((i) => classes[i].blockAckReq !== null) ? Math.max(...members.map((i) => (classes[i].blockAckReq as BlockAckRequestExchange).collisionPpduUs)) : 0);
-    byLength.push([...members].sort((a, b) => classes[b].collisionPpduUs - classes[a].collisionPpduUs));
-    anyBar.push(members.some((i) => classes[i].blockAckReq !== null));
+    const order = [...members].sort((a, b) => classes[b].collisionPpduUs - classes[a].collisionPpduUs);
+    const allBar = members.every((i) => classes[i].blockAckReq !== null);
+    const bars = allBar ? Math.max(...members.map(barOf)) : 0;
+    const some = members.some((i) => classes[i].blockAckReq !== null);
+    const group = { mask, states: [] as number[] };
+    const push = (v: number, long: number, air: number, senders: number): void => {
+      group.states.push(masks.length);
+      masks.push(mask);
+      variant.push(v);
+      longest.push(long);
+      airUs.push(air);
+      barSenders.push(senders);
+      barPpduUs.push(bars);
+      byLength.push(order);
+      anyBar.push(some);
+    };
+    if (members.length === 1 || !some) push(-1, order[0], classes[order[0]].collisionPpduUs, 0);
+    else {
+      // With BlockAckReq recovery a mixed collision's longest PPDU is that of the first class, in order of
+      // their A-MPDUs, with a data sender; the classes before it sent BlockAckReqs only. Who was on air
+      // longest sets when the others resume, so each case is a state of its own.
+      let senders = 0;
+      for (let v = 0; v < order.length; v++) {
+        push(v, order[v], classes[order[v]].collisionPpduUs, senders);
+        if (classes[order[v]].blockAckReq === null) break; // a class without BAR always sends data
+        senders |= 1 << order[v];
+      }
+      if (allBar) push(order.length, members.reduce((a, b) => (barOf(b) > barOf(a) ? b : a)), bars, mask);
+    }
+    groups.push(group);
   }
-  return { count: C + masks.length, masks, longest, barPpduUs, byLength, anyBar };
+  return { count: C + masks.length, masks, variant, longest, airUs, barSenders, barPpduUs, byLength, anyBar, groups };
 }
 
 /** What one state leads to: the next state's law, cycle time, successes, attempts and listener residuals. */
@@ -580,8 +620,8 @@ function runState(
       }
       // Collisions by the set S of classes that take part: Π_{c∈S} P(some of c send at t) · Π_{c∉S} P(none
       // of c), less the lone sender when S is one class; the colliders each class brings go with the state.
-      for (let q = 0; q < space.masks.length; q++) {
-        const mask = space.masks[q];
+      for (const group of space.groups) {
+        const mask = group.mask;
         let m = 1;
         let single = -1;
         for (let c = 0; c < C; c++) m *= mask & (1 << c) ? z0[c] - z1[c] : z1[c];
@@ -590,15 +630,34 @@ function runState(
           m -= (ps[single] * r1[single] + pl[single] * e1[single]) * o1[single];
         }
         if (!(m > 0)) continue;
-        next[C + q] += m;
-        cycle += m * zoneUs + collisionAirUs(q, single, m);
-        for (let c = 0; c < C; c++) {
-          if (!(mask & (1 << c))) continue;
-          const some = z0[c] - z1[c];
-          const senders = ps[c] * r0[c] + pl[c] * e0[c]; // E[senders of c at t; none of c before]
-          const lone = ps[c] * r1[c] + pl[c] * e1[c];
-          const e = c === single ? (some - lone > 1e-300 ? (senders - lone) / (some - lone) : 2) : some > 1e-300 ? senders / some : 1;
-          colliders[q * C + c] += m * Math.min(classes[c].stations, Math.max(c === single ? 2 : 1, e));
+        for (const q of group.states) {
+          let mq = m;
+          let airUs: number;
+          if (space.variant[q] < 0) airUs = collisionAirUs(q, single, m);
+          else {
+            // This case's share: the classes before byLength[v] sent BlockAckReqs only (zb − z1), byLength[v]
+            // some data (z0 − zb), the rest anything (z0 − z1); all BlockAckReqs when v is past the end.
+            const order = space.byLength[q];
+            const v = space.variant[q];
+            mq = 1;
+            for (let c = 0; c < C; c++) if (!(mask & (1 << c))) mq *= z1[c];
+            for (let i = 0; i < order.length; i++) {
+              const c = order[i];
+              mq *= i < v ? zb[c] - z1[c] : i === v ? z0[c] - zb[c] : z0[c] - z1[c];
+            }
+            if (!(mq > 0)) continue;
+            airUs = mq * space.airUs[q];
+          }
+          next[C + q] += mq;
+          cycle += mq * zoneUs + airUs;
+          for (let c = 0; c < C; c++) {
+            if (!(mask & (1 << c))) continue;
+            const some = z0[c] - z1[c];
+            const senders = ps[c] * r0[c] + pl[c] * e0[c]; // E[senders of c at t; none of c before]
+            const lone = ps[c] * r1[c] + pl[c] * e1[c];
+            const e = c === single ? (some - lone > 1e-300 ? (senders - lone) / (some - lone) : 2) : some > 1e-300 ? senders / some : 1;
+            colliders[q * C + c] += mq * Math.min(classes[c].stations, Math.max(c === single ? 2 : 1, e));
+          }
         }
       }
     }
@@ -776,10 +835,11 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   // resume after their own timeout or the end of the longest PPDU, whichever is later; the listeners
   // EIFS − DIFS after the longest PPDU (10.3.2.3.7).
   const long = space.longest[q];
-  const L = classes[long].collisionPpduUs;
+  const L = space.airUs[q];
   const refUs = L + classes[long].responseTimeoutUs;
-  const colliderOffset = (c: number): number =>
-    c === long ? 0 : Math.round((Math.max(classes[c].collisionPpduUs + classes[c].responseTimeoutUs, L) - refUs) / sigma);
+  const onAirUs = (c: number): number =>
+    space.barSenders[q] & (1 << c) ? (classes[c].blockAckReq as BlockAckRequestExchange).collisionPpduUs : classes[c].collisionPpduUs;
+  const colliderOffset = (c: number): number => (c === long ? 0 : Math.round((Math.max(onAirUs(c) + classes[c].responseTimeoutUs, L) - refUs) / sigma));
   const listenerLag = Math.max(0, Math.round((L + channel.eifsExtraUs - refUs) / sigma));
   return classes.map((c, i) => {
     const inside = (mask & (1 << i)) !== 0;
