@@ -168,8 +168,8 @@ function saturate(): boolean {
 }
 
 /**
- * EDCAMIX has no memo: every call solves the mix (VO + BE, 1–2 × 4–20 stations, packets 500–1499 bytes: the
- * answered range; 5 VO, or 2 VO beside 1–3 BE, are refused as outside the model's checked range).
+ * EDCAMIX has no memo: every call solves the mix (VO + BE, 1–2 × 4–20 stations, packets from 500 bytes up, a
+ * new size every 100 calls — the loop's first calls see the first sizes; all within the answered range).
  */
 function edcamixCold(): boolean {
   const f = loadBundleHere().get("EDCAMIX");

@@ -120,6 +120,15 @@ function simulatedMix(channel: ContentionChannel): { g: number[]; gErr: number[]
   return { g: g.map((x) => x[0]), gErr: g.map((x) => x[1]), p: p.map((x) => x[0]), pErr: p.map((x) => x[1]) };
 }
 
+/** Issue 11's tolerance (5 %, or 0.1 Mb/s under 2 Mb/s; p within 0.02) plus twice the reference's own standard error. */
+function expectWithinMixTolerance(model: ReturnType<typeof edcaSaturation>, sim: ReturnType<typeof simulatedMix>): void {
+  model.classes.forEach((c, i) => {
+    const s = sim.g[i];
+    expect(Math.abs(c.goodputMbps - s)).toBeLessThanOrEqual((s < 2 ? 0.1 : 0.05 * s) + 2 * sim.gErr[i]);
+    expect(Math.abs(c.p - sim.p[i])).toBeLessThanOrEqual(0.02 + 2 * sim.pErr[i]);
+  });
+}
+
 describe("EDCAMIX's model against the simulator", () => {
   // Tolerance: issue 11's (5 %, or 0.1 Mb/s under 2 Mb/s; p within 0.02) plus twice the reference's own
   // standard error over its seeds (a class with a 2 % share has a few thousand successes per run).
@@ -128,13 +137,21 @@ describe("EDCAMIX's model against the simulator", () => {
       const channel = contentionChannel("HE MCS7 1SS 20MHz 5GHz", mix.map(([access, stations]) => ({ access, stations })), 1500);
       const model = edcaSaturation(channel);
       expect(model.residual).toBeLessThanOrEqual(1e-4);
-      const sim = simulatedMix(channel);
-      model.classes.forEach((c, i) => {
-        const s = sim.g[i];
-        const allowed = (s < 2 ? 0.1 : 0.05 * s) + 2 * sim.gErr[i];
-        expect(Math.abs(c.goodputMbps - s)).toBeLessThanOrEqual(allowed);
-        expect(Math.abs(c.p - sim.p[i])).toBeLessThanOrEqual(0.02 + 2 * sim.pErr[i]);
-      });
+      expectWithinMixTolerance(model, simulatedMix(channel));
+    });
+  }
+
+  // BlockAckReq recovery (mac_options BAR) in the mixes EDCAMIX answers with it.
+  const BAR_MIXES: Mix[] = [
+    [["VO", 1], ["BE", 10]],
+    [["VI", 2], ["BE", 3]],
+    [["VO", 1], ["VI", 1], ["BE", 1]],
+    [["BE", 2], ["BK", 10]],
+  ];
+  for (const mix of BAR_MIXES) {
+    it(`agrees per class with BAR for ${mix.map(([a, n]) => `${n} ${a}`).join(" + ")}`, () => {
+      const channel = contentionChannel("HE MCS7 1SS 20MHz 5GHz", mix.map(([access, stations]) => ({ access, stations })), 1500, "auto", "none", "BAR");
+      expectWithinMixTolerance(edcaSaturation(channel), simulatedMix(channel));
     });
   }
 
