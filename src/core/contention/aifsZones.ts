@@ -1379,9 +1379,25 @@ export interface SolverOptions {
   readonly tableStart?: number;
 }
 
+/**
+ * Stations whose backoff windows are this small are solved on their counter
+ * tables even as one class (SATURATE, CONTENTION): Bianchi's memoryless
+ * countdown (saturation.ts) reads them 3–12 % high — a fresh counter on
+ * 0…3 has sent within four slots for sure, and the one left behind after a
+ * success sits low — while the tables match the simulator within 1 %
+ * (DEVELOPERS.md). A first window of up to 8 slots, or a last of up to 16:
+ * VO and VI with their default parameters.
+ */
+const SMALL_FIRST_WINDOW = 8;
+const SMALL_LAST_WINDOW = 16;
+
+export function countersMatter(c: ContentionClass): boolean {
+  return c.stations >= 2 && (c.cwMin + 1 <= SMALL_FIRST_WINDOW || c.cwMax + 1 <= SMALL_LAST_WINDOW);
+}
+
 function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixResult {
   const classes = channel.classes;
-  if (classes.length === 1) {
+  if (classes.length === 1 && !countersMatter(classes[0])) {
     const s = saturation(channel);
     const c = classes[0];
     return {
@@ -1491,5 +1507,5 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
       airtimeShare: (successes * (c.successUs + aifsMin)) / cycleUs,
     };
   });
-  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done, oneClass: false };
+  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done, oneClass: classes.length === 1 };
 }

@@ -112,18 +112,20 @@ function solveFixedPoint(stations: number, cwMin: number, cwMax: number, retryLi
  * with the Illinois modification (M. Dowell and P. Jarratt, BIT 11, 1971),
  * which keeps the bracket — so it cannot leave [lo, hi] — and converges
  * superlinearly; a bisection step is taken whenever the secant point fails
- * to shrink the bracket by half, and the iterations are capped.
+ * to shrink the bracket by half, and the iterations are capped. It stops
+ * when the bracket is narrower than `tolerance`, or at a secant point where
+ * |g| ≤ `gTolerance`.
  */
-export function bracketedRoot(g: (x: number) => number, lo: number, gLo: number, hi: number, gHi: number): number {
+export function bracketedRoot(g: (x: number) => number, lo: number, gLo: number, hi: number, gHi: number, tolerance: number = P_TOLERANCE, gTolerance: number = 0): number {
   if (gLo >= 0) return lo;
   if (gHi <= 0) return hi;
   let side = 0;
-  for (let step = 0; step < ROOT_STEPS_MAX && hi - lo > P_TOLERANCE; step++) {
+  for (let step = 0; step < ROOT_STEPS_MAX && hi - lo > tolerance; step++) {
     const width = hi - lo;
     let x = (lo * gHi - hi * gLo) / (gHi - gLo);
     if (!(x > lo && x < hi)) x = (lo + hi) / 2;
     const gx = g(x);
-    if (gx === 0) return x;
+    if (Math.abs(gx) <= gTolerance) return x;
     if (gx < 0) {
       lo = x;
       gLo = gx;
