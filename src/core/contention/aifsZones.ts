@@ -1034,6 +1034,7 @@ function settingsKey(c: ContentionClass): string {
  * as one and shared out by stations: their stations are alike.
  */
 export function edcaSaturation(channel: ContentionChannel, options: SolverOptions = {}): MixResult {
+  if (channel.classes.length === 1) return solveDistinct(channel, options);
   const keys = channel.classes.map(settingsKey);
   const distinct = [...new Set(keys)];
   if (distinct.length === channel.classes.length) return solveDistinct(channel, options);
@@ -1395,6 +1396,27 @@ export function countersMatter(c: ContentionClass): boolean {
   return c.stations >= 2 && (c.cwMin + 1 <= SMALL_FIRST_WINDOW || c.cwMax + 1 <= SMALL_LAST_WINDOW);
 }
 
+/**
+ * What one class's fixed point (p, colliders, listener laws) depends on: its
+ * station count and backoff settings, BlockAckReq recovery or not, and the
+ * zones the listeners lag the colliders after a collision (EIFS − DIFS − the
+ * timeout). Not the exchange's durations: with one class they only convert
+ * the states' outcomes to time and payload. (A mix's offsets depend on its
+ * classes' PPDUs, so mixes are not kept.)
+ */
+function oneClassKey(channel: ContentionChannel): string {
+  const c = channel.classes[0];
+  const lag = Math.max(0, Math.round((channel.eifsExtraUs - c.responseTimeoutUs) / channel.slotUs));
+  return [c.stations, c.aifsn, c.cwMin, c.cwMax, c.retryLimit, c.countdown, c.blockAckReq === null ? 0 : 1, lag].join("|");
+}
+
+/** Solved one-class iterates by oneClassKey (as bianchi.ts keeps Bianchi's fixed points), at most ONE_CLASS_MEMO_LIMIT. */
+const ONE_CLASS_FIXED_POINTS = new Map<
+  string,
+  { readonly tables: readonly number[]; readonly x: Float64Array; readonly fresh: readonly Law[] }
+>();
+const ONE_CLASS_MEMO_LIMIT = 512;
+
 function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixResult {
   const classes = channel.classes;
   if (classes.length === 1 && !countersMatter(classes[0])) {
@@ -1409,7 +1431,11 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
       oneClass: true,
     };
   }
-  const space = stateSpace(classes);
+  // One class: its fixed point depends on the counters' dynamics alone (oneClassKey), so a solved one
+  // starts the iteration, which then ends after the sweep that evaluates it.
+  const memoKey = classes.length === 1 && options.tableStart === undefined && options.workLimit === undefined ? oneClassKey(channel) : null;
+  const known = memoKey === null ? undefined : ONE_CLASS_FIXED_POINTS.get(memoKey);
+  const space = stateSpace(classes); // holds the PPDU durations: made anew for every channel
   const minAifsn = Math.min(...classes.map((c) => c.aifsn));
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
@@ -1420,18 +1446,22 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
     channel,
     space,
     layout: layoutOf(classes.length, space, sizes),
-    fresh: classes.map((c, i) => freshLaw(c, sizes[i])),
+    fresh: known !== undefined && sizes === tables ? known.fresh : classes.map((c, i) => freshLaw(c, sizes[i])),
     colliderPieces: classes.map(colliderPieces),
     delay,
     aifsMin,
     buffers: pooledBuffers(space, sizes),
   });
+  if (known !== undefined) tables = [...known.tables];
   let setup = setupOf(tables);
   // Start: p = 0, two colliders of a class alone and one of each class in a mixed collision, every
   // listener on its first window.
   let x: Float64Array = new Float64Array(setup.layout.length);
-  classes.forEach((c, i) => x.set(uniform(tables[i], c.cwMin + 1), setup.layout.start[i]));
-  project(x, setup.layout, space, classes);
+  if (known !== undefined) x.set(known.x);
+  else {
+    classes.forEach((c, i) => x.set(uniform(tables[i], c.cwMin + 1), setup.layout.start[i]));
+    project(x, setup.layout, space, classes);
+  }
   const fs: Float64Array[] = [];
   const gs: Float64Array[] = [];
   let last: Sweep | null = null;
@@ -1493,6 +1523,10 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
   // The distance left to the fixed point: the last sweep moved every quantity by `moved` (the
   // accelerated iterate's own residual |G(x) − x|); the answer reported is G(x). Unsettled → Infinity.
   const residual = moved <= MAP_TOLERANCE ? moved : Infinity;
+  if (memoKey !== null && residual <= MAP_TOLERANCE && known === undefined) {
+    if (ONE_CLASS_FIXED_POINTS.size >= ONE_CLASS_MEMO_LIMIT) ONE_CLASS_FIXED_POINTS.clear();
+    ONE_CLASS_FIXED_POINTS.set(memoKey, { tables: [...tables], x: Float64Array.from(x), fresh: setup.fresh });
+  }
   const { outcomes, pi, image } = last as Sweep;
   let cycleUs = 0;
   outcomes.forEach((o, s) => (cycleUs += pi[s] * o.cycleUs));
