@@ -184,7 +184,7 @@ function saturate(): boolean {
 }
 
 /**
- * EDCAMIX has no memo: every call solves the mix (VO + BE, 1–2 × 4–20 stations, packets from 500 bytes up, a
+ * EDCAMIX has no memo of answers: every call solves the mix (VO + BE, 1–2 × 4–20 stations, packets from 500 bytes up, a
  * new size every 100 calls — the loop's first calls see the first sizes; all within the answered range).
  */
 function edcamixCold(): boolean {
@@ -199,10 +199,16 @@ function edcamixCold(): boolean {
   const bytes = (i: number) => 500 + (((i / 100) | 0) % 1000);
   const coreRate = rate((i) => edcaMix(link, [["VO"], ["BE"]], [[vo(i)], [be(i)]], bytes(i))[1].goodputMbps);
   const bundleRate = rate((i) => (f(link, [["VO"], ["BE"]], [[vo(i)], [be(i)]], bytes(i) + 1) as number[][])[1][2]);
+  // The same mixes solved from the start every call (a study option of the solver bypasses the kept fixed
+  // points, aifsZones.ts fixedPointKey): what a mix whose station counts, backoff and zone offsets were never
+  // seen before costs.
+  const { contentionChannel, edcaSaturation } = core.contention;
+  const fullRate = rate((i) => edcaSaturation(contentionChannel(link, [{ access: "VO", stations: vo(i) }, { access: "BE", stations: be(i) }], bytes(i)), { tableStart: 32 }).classes[1].goodputMbps);
   const us = (r: number) => 1e6 / r;
-  const ok = us(coreRate) <= 200 && us(bundleRate) <= 200;
+  const ok = us(coreRate) <= 200 && us(bundleRate) <= 200 && us(fullRate) <= 200;
   console.log("\n4b. EDCAMIX cold, two classes (issue 11 target: ≤ 200 µs per call)");
-  console.log(`   core ${us(coreRate).toFixed(0)} µs, bundle ${us(bundleRate).toFixed(0)} µs: ${ok ? "PASS" : "FAIL"}`);
+  console.log(`   new arguments        core ${us(coreRate).toFixed(0)} µs, bundle ${us(bundleRate).toFixed(0)} µs (a fixed point of the same dynamics is kept)`);
+  console.log(`   solved from scratch  core ${us(fullRate).toFixed(0)} µs: ${ok ? "PASS" : "FAIL"}`);
   return ok;
 }
 

@@ -810,6 +810,29 @@ const POWERS_SCRATCH = new Float64Array(128);
 /** One station exactly (a success state's special), or no specials at all. */
 const ONE = Float64Array.of(1);
 
+/**
+ * The zones at which the stations of collision state q resume, relative to
+ * zone 0 = the longest collider's PPDU end + its timeout + AIFS_min: the
+ * other colliders after their own timeout or the end of the longest PPDU,
+ * whichever is later; the listeners EIFS − DIFS after the longest PPDU
+ * (10.3.2.3.7). Written into `into` (one entry per class).
+ */
+function collisionOffsets(channel: ContentionChannel, space: StateSpace, q: number, into: number[]): { readonly colliderOffset: readonly number[]; readonly listenerLag: number } {
+  const classes = channel.classes;
+  const sigma = channel.slotUs;
+  const long = space.longest[q];
+  const L = space.airUs[q];
+  const refUs = L + classes[long].responseTimeoutUs;
+  for (let c = 0; c < classes.length; c++) {
+    const onAirUs = space.barSenders[q] & (1 << c) ? (classes[c].blockAckReq as BlockAckRequestExchange).collisionPpduUs : classes[c].collisionPpduUs;
+    into[c] = c === long ? 0 : Math.round((Math.max(onAirUs + classes[c].responseTimeoutUs, L) - refUs) / sigma);
+  }
+  return { colliderOffset: into, listenerLag: Math.max(0, Math.round((L + channel.eifsExtraUs - refUs) / sigma)) };
+}
+
+/** collisionOffsets' scratch (membersOf reads it before the next call). */
+const ZONE_OFFSETS: number[] = [];
+
 /** The members of one state: per class its specials (fresh, or colliders and how many) and its listeners, with their zone offsets. */
 function membersOf(channel: ContentionChannel, state: number, space: StateSpace, laws: Laws, delay: readonly number[]): Member[] {
   const classes = channel.classes;
@@ -834,20 +857,14 @@ function membersOf(channel: ContentionChannel, state: number, space: StateSpace,
   // Reference: the longest collider's PPDU end + its timeout + AIFS_min. The others of the collision
   // resume after their own timeout or the end of the longest PPDU, whichever is later; the listeners
   // EIFS − DIFS after the longest PPDU (10.3.2.3.7).
-  const long = space.longest[q];
-  const L = space.airUs[q];
-  const refUs = L + classes[long].responseTimeoutUs;
-  const onAirUs = (c: number): number =>
-    space.barSenders[q] & (1 << c) ? (classes[c].blockAckReq as BlockAckRequestExchange).collisionPpduUs : classes[c].collisionPpduUs;
-  const colliderOffset = (c: number): number => (c === long ? 0 : Math.round((Math.max(onAirUs(c) + classes[c].responseTimeoutUs, L) - refUs) / sigma));
-  const listenerLag = Math.max(0, Math.round((L + channel.eifsExtraUs - refUs) / sigma));
+  const { colliderOffset, listenerLag } = collisionOffsets(channel, space, q, ZONE_OFFSETS);
   return classes.map((c, i) => {
     const inside = (mask & (1 << i)) !== 0;
     const counts = inside ? colliderCounts(c.stations, single ? 2 : 1, laws.colliders[q * C + i] * c.stations, laws.countScratch[q * C + i]) : { kMin: 0, weights: ONE };
     return {
       n: c.stations,
       special: inside ? laws.collider[i] : null,
-      specialOffset: delay[i] + (inside ? colliderOffset(i) : 0),
+      specialOffset: delay[i] + (inside ? colliderOffset[i] : 0),
       specialBar: c.blockAckReq === null ? 0 : 1,
       kMin: counts.kMin,
       weights: counts.weights,
@@ -1397,25 +1414,28 @@ export function countersMatter(c: ContentionClass): boolean {
 }
 
 /**
- * What one class's fixed point (p, colliders, listener laws) depends on: its
- * station count and backoff settings, BlockAckReq recovery or not, and the
- * zones the listeners lag the colliders after a collision (EIFS − DIFS − the
- * timeout). Not the exchange's durations: with one class they only convert
- * the states' outcomes to time and payload. (A mix's offsets depend on its
- * classes' PPDUs, so mixes are not kept.)
+ * What a fixed point (p, colliders, listener laws) depends on: each class's
+ * station count and backoff settings (AIFSN, CWmin, CWmax, retry limit,
+ * countdown, BlockAckReq recovery or not), and per collision state the
+ * order of its classes' PPDUs, which class was on air longest and the zones
+ * at which colliders and listeners resume (collisionOffsets). The durations
+ * themselves only turn the states' outcomes into time and payload, so
+ * channels that agree on all this (another packet size, MCS or link of the
+ * same slot grid) share the fixed point.
  */
-function oneClassKey(channel: ContentionChannel): string {
-  const c = channel.classes[0];
-  const lag = Math.max(0, Math.round((channel.eifsExtraUs - c.responseTimeoutUs) / channel.slotUs));
-  return [c.stations, c.aifsn, c.cwMin, c.cwMax, c.retryLimit, c.countdown, c.blockAckReq === null ? 0 : 1, lag].join("|");
+function fixedPointKey(channel: ContentionChannel, space: StateSpace): string {
+  let key = "";
+  for (const c of channel.classes) key += `${c.stations},${c.aifsn},${c.cwMin},${c.cwMax},${c.retryLimit},${c.countdown},${c.blockAckReq === null ? 0 : 1};`;
+  for (let q = 0; q < space.masks.length; q++) {
+    const { colliderOffset, listenerLag } = collisionOffsets(channel, space, q, ZONE_OFFSETS);
+    key += `|${space.variant[q]},${space.longest[q]},${space.byLength[q].join(".")},${colliderOffset.join(".")},${listenerLag}`;
+  }
+  return key;
 }
 
-/** Solved one-class iterates by oneClassKey (as bianchi.ts keeps Bianchi's fixed points), at most ONE_CLASS_MEMO_LIMIT. */
-const ONE_CLASS_FIXED_POINTS = new Map<
-  string,
-  { readonly tables: readonly number[]; readonly x: Float64Array; readonly fresh: readonly Law[] }
->();
-const ONE_CLASS_MEMO_LIMIT = 512;
+/** Solved iterates by fixedPointKey (as bianchi.ts keeps Bianchi's fixed points), at most FIXED_POINT_MEMO_LIMIT. */
+const FIXED_POINTS = new Map<string, { readonly tables: readonly number[]; readonly x: Float64Array; readonly fresh: readonly Law[] }>();
+const FIXED_POINT_MEMO_LIMIT = 512;
 
 function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixResult {
   const classes = channel.classes;
@@ -1431,11 +1451,11 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
       oneClass: true,
     };
   }
-  // One class: its fixed point depends on the counters' dynamics alone (oneClassKey), so a solved one
-  // starts the iteration, which then ends after the sweep that evaluates it.
-  const memoKey = classes.length === 1 && options.tableStart === undefined && options.workLimit === undefined ? oneClassKey(channel) : null;
-  const known = memoKey === null ? undefined : ONE_CLASS_FIXED_POINTS.get(memoKey);
   const space = stateSpace(classes); // holds the PPDU durations: made anew for every channel
+  // A fixed point solved before for the same dynamics (fixedPointKey) starts the iteration, which then ends
+  // after the sweep that evaluates it. (Study options solve afresh, and are not kept.)
+  const memoKey = options.tableStart === undefined && options.workLimit === undefined ? fixedPointKey(channel, space) : null;
+  const known = memoKey === null ? undefined : FIXED_POINTS.get(memoKey);
   const minAifsn = Math.min(...classes.map((c) => c.aifsn));
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
@@ -1524,8 +1544,8 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
   // accelerated iterate's own residual |G(x) − x|); the answer reported is G(x). Unsettled → Infinity.
   const residual = moved <= MAP_TOLERANCE ? moved : Infinity;
   if (memoKey !== null && residual <= MAP_TOLERANCE && known === undefined) {
-    if (ONE_CLASS_FIXED_POINTS.size >= ONE_CLASS_MEMO_LIMIT) ONE_CLASS_FIXED_POINTS.clear();
-    ONE_CLASS_FIXED_POINTS.set(memoKey, { tables: [...tables], x: Float64Array.from(x), fresh: setup.fresh });
+    if (FIXED_POINTS.size >= FIXED_POINT_MEMO_LIMIT) FIXED_POINTS.clear();
+    FIXED_POINTS.set(memoKey, { tables: [...tables], x: Float64Array.from(x), fresh: setup.fresh });
   }
   const { outcomes, pi, image } = last as Sweep;
   let cycleUs = 0;

@@ -37,12 +37,15 @@
  * After a collision the others wait EIFS − DIFS + AIFS after the PPDU
  * (10.3.2.3.7, 10.23.2.4), δ = EIFS − DIFS − timeout longer than the
  * colliders: e = round(δ/σ) slots (the half-slot sensing rule of the
- * simulator) in which only the two colliders (assumed a pair) may send.
+ * simulator) in which only the K colliders may send, K ≥ 2 binomial as in
+ * a regular slot's collision (afterCollision; a pair alone read 300 DCF
+ * stations 8 % low, since a collision among many leaves many to take those
+ * slots).
  * Special slots before the regular zone, and their idle time if nobody sends:
  *   EDCA after S: none (0 µs)             DCF after S: the DIFS boundary, 1/W_0 (σ)
  *   EDCA after C: e exclusive slots       DCF after C: e + 1 exclusive slots (δ + σ)
- *     (δ)                                  exclusive slot j: one collider sends 2q(1 − (j+1)q),
- *                                          both q² (a collision), nobody (1 − (j+1)q)² so far
+ *     (δ)                                  exclusive slot j, K colliders: one sends alone
+ *                                          K·q·(1 − (j+1)q)^(K−1), none so far (1 − (j+1)q)^K
  * The S/C chain's stationary law weights each state's expected payload and
  * time; goodput = E[payload] ÷ E[time] per busy period. p is the implied
  * share of collided attempts (regular ones collide with 1 − (1−τ)^(n−1), a
@@ -51,6 +54,10 @@
  *
  * One station: p = 0 and goodput = payload ÷ (AIFS + CWmin/2·σ + exchange),
  * which is GOODPUT. With EDCA, δ = 0 and no BAR this is Bianchi's model.
+ *
+ * Small windows (VO, VI) do not come here: SATURATE solves them on counter
+ * tables (aifsZones.ts countersMatter), since a memoryless countdown reads
+ * them 3–12 % high.
  */
 import { bracketedRoot, fixedPoint } from "./bianchi";
 import { aifsUs, type ContentionChannel, type ContentionClass } from "./parameters";
