@@ -823,6 +823,7 @@ function collisionOffsets(channel: ContentionChannel, space: StateSpace, q: numb
   const long = space.longest[q];
   const L = space.airUs[q];
   const refUs = L + classes[long].responseTimeoutUs;
+  into.length = classes.length;
   for (let c = 0; c < classes.length; c++) {
     const onAirUs = space.barSenders[q] & (1 << c) ? (classes[c].blockAckReq as BlockAckRequestExchange).collisionPpduUs : classes[c].collisionPpduUs;
     into[c] = c === long ? 0 : Math.round((Math.max(onAirUs + classes[c].responseTimeoutUs, L) - refUs) / sigma);

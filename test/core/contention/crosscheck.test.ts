@@ -135,6 +135,19 @@ describe("COLLIDE against the simulator", () => {
       expect(Math.abs(collisionProbability(n) - simulated(channel, 20_000).p[0])).toBeLessThanOrEqual(0.02);
     });
   }
+
+  // Small windows: Bianchi's memoryless countdown is off, the counter tables (SATURATE's model for them) are not.
+  it("departs from the simulator for VO's windows (CW 3…7), where SATURATE's counter tables match it", () => {
+    const channel: ContentionChannel = {
+      slotUs: 9,
+      sifsUs: 16,
+      eifsExtraUs: 50,
+      classes: [{ name: "VO", stations: 2, aifsn: 2, cwMin: 3, cwMax: 7, retryLimit: 7, countdown: "EDCA", successUs: 300, collisionPpduUs: 250, responseTimeoutUs: 50, payloadBits: 12000, blockAckReq: null }],
+    };
+    const sim = simulated(channel, 20_000).p[0];
+    expect(sim - collisionProbability(2, 3, 7)).toBeGreaterThan(0.02);
+    expect(Math.abs(edcaSaturation(channel).classes[0].p - sim)).toBeLessThanOrEqual(0.01);
+  });
 });
 
 type Mix = [string, number][];
