@@ -78,11 +78,20 @@
  * catalog refuses it. With one class EDCAMIX uses saturation.ts, which
  * SATURATE uses.
  *
- * What remains of the mean-field decoupling, measured against the
- * simulator (DEVELOPERS.md): a deferred class beside several small-window
- * stations reads 5–14 % low, and a class colliding on nearly every attempt
- * (20 VO, p 0.994) 22 % low; the catalog refuses where that exceeds the
- * issue's tolerance.
+ * Pair states: listeners of a state are not independent given it — they
+ * share the state before (after a success that followed a collision, VO
+ * listeners sit higher: that collision's listeners waited EIFS, its
+ * colliders drew from the wider window). With one listener law per class a
+ * deferred class beside several small-window stations read 5–14 % low. So
+ * in a mix the chain runs on pairs (y, s) of states, and the listeners of
+ * an EDCA class of at most PAIRED_WINDOW counters (VO, VI) take, in (y, s),
+ * the law that y's idle period left (part of the iterate, pairedImage);
+ * other classes keep R_c. S² runs per sweep instead of S.
+ *
+ * What remains, measured against the simulator (DEVELOPERS.md): a deferred
+ * class beyond p 0.8 beside 5 VO reads up to 7 % low, and a class
+ * colliding on nearly every attempt (20 VO, p 0.994) 22 % low; the catalog
+ * refuses where that exceeds the issue's tolerance.
  */
 import type { BlockAckRequestExchange, ContentionChannel, ContentionClass } from "./parameters";
 import { saturation } from "./saturation";
@@ -1020,7 +1029,7 @@ function stationary(rows: readonly Float64Array[]): Float64Array {
 }
 
 /** stationary's elimination rows (the solver never reenters). */
-const STATIONARY_SCRATCH = new Float64Array(32 * 33);
+const STATIONARY_SCRATCH = new Float64Array(64 * 65);
 
 interface Laws {
   readonly fresh: readonly Law[];
@@ -1087,10 +1096,15 @@ interface Layout {
   /** Start of class c's listener table in the vector, and its length K_c. */
   readonly start: readonly number[];
   readonly size: readonly number[];
+  /**
+   * Pair states (pairedClasses): per state y and class c, the start of the law its listeners leave to
+   * the next state (-1 for a class that is not paired); null when no class is.
+   */
+  readonly after: readonly (readonly number[])[] | null;
   readonly length: number;
 }
 
-function layoutOf(C: number, space: StateSpace, tables: readonly number[]): Layout {
+function layoutOf(C: number, space: StateSpace, tables: readonly number[], paired: readonly boolean[]): Layout {
   const start: number[] = [];
   const Q = space.masks.length;
   let at = C * (2 + Q);
@@ -1098,7 +1112,37 @@ function layoutOf(C: number, space: StateSpace, tables: readonly number[]): Layo
     start.push(at);
     at += K;
   }
-  return { C, Q, start, size: tables, length: at };
+  let after: number[][] | null = null;
+  if (paired.some((b) => b)) {
+    after = [];
+    for (let y = 0; y < space.count; y++) {
+      const row: number[] = [];
+      for (let c = 0; c < C; c++) {
+        row.push(paired[c] ? at : -1);
+        if (paired[c]) at += tables[c];
+      }
+      after.push(row);
+    }
+  }
+  return { C, Q, start, size: tables, after, length: at };
+}
+
+/**
+ * Classes whose listeners are followed per previous state (pair states): EDCA classes of at most
+ * PAIRED_WINDOW counters, held whole on their tables, in a mix of two or more classes.
+ *
+ * Why: the listeners of a state are not independent given it; they share the state before. In the
+ * simulator (5 VO + 1 BE) the VO listeners' counters average 1.37 after a success that followed a success,
+ * 2.0–2.5 after one that followed a collision (its listeners waited EIFS, its colliders drew from the
+ * wider window), and with one pooled law best effort beside several VO or VI read 5–14 % low. So the
+ * state chain runs on pairs (y, s), and a paired class's listeners in (y, s) take the law the
+ * non-senders of y's idle period left (its part of the iterate); the others keep R_c.
+ */
+const PAIRED_WINDOW = 32;
+
+function pairedClasses(classes: readonly ContentionClass[], tables: readonly number[]): boolean[] {
+  if (classes.length < 2) return classes.map(() => false);
+  return classes.map((c, i) => c.countdown === "EDCA" && c.cwMax + 1 <= PAIRED_WINDOW && tables[i] === c.cwMax + 1);
 }
 
 /** Counters of a listener's entries kept beyond its table (the renewal tail reads them). */
@@ -1106,8 +1150,11 @@ const ENTRY_MARGIN = REACH_MAX + 3;
 
 /** Arrays of about K_c entries per class that one sweep fills and the next overwrites (no allocation per sweep). */
 interface Buffers {
-  /** Per state: what runState writes. */
+  /** Per state (per pair of states y·S + s with paired classes): what runState writes. */
   readonly states: readonly StateBuffers[];
+  /** The pair chain's transition rows, and the tails of the paired laws per state and class (empty without paired classes). */
+  readonly pairRows: readonly Float64Array[];
+  readonly pairTails: readonly (readonly Float64Array[])[];
   readonly zone: ZoneScratch;
   readonly collider: readonly ColliderScratch[];
   readonly listenerTails: readonly Float64Array[];
@@ -1142,10 +1189,13 @@ function ring(r: Ring): Float64Array {
   return r.slots[r.at];
 }
 
-function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
-  const iterateLength = tables.length * (2 + space.masks.length) + tables.reduce((a, b) => a + b, 0);
+function buffersOf(space: StateSpace, tables: readonly number[], layout: Layout): Buffers {
+  const iterateLength = layout.length;
+  const runs = layout.after === null ? space.count : space.count * space.count;
   return {
-    states: Array.from({ length: space.count }, () => stateBuffersOf(space, tables)),
+    states: Array.from({ length: runs }, () => stateBuffersOf(space, tables)),
+    pairRows: layout.after === null ? [] : Array.from({ length: runs }, () => new Float64Array(runs)),
+    pairTails: layout.after === null ? [] : Array.from({ length: space.count }, () => tables.map((K) => new Float64Array(K + 1))),
     zone: zoneScratchOf(tables.length),
     collider: tables.map((K) => ({ law: new Float64Array(K), tails: new Float64Array(K + 1) })),
     listenerTails: tables.map((K) => new Float64Array(K + 1)),
@@ -1168,12 +1218,12 @@ function buffersOf(space: StateSpace, tables: readonly number[]): Buffers {
 const BUFFER_POOL = new Map<string, Buffers>();
 const POOL_LIMIT = 32;
 
-function pooledBuffers(space: StateSpace, tables: readonly number[]): Buffers {
-  const key = `${space.masks.join(",")}|${tables.join(",")}`;
+function pooledBuffers(space: StateSpace, tables: readonly number[], layout: Layout): Buffers {
+  const key = `${space.masks.join(",")}|${tables.join(",")}|${layout.length}`;
   let b = BUFFER_POOL.get(key);
   if (!b) {
     if (BUFFER_POOL.size >= POOL_LIMIT) BUFFER_POOL.clear();
-    b = buffersOf(space, tables);
+    b = buffersOf(space, tables, layout);
     BUFFER_POOL.set(key, b);
   }
   return b;
@@ -1190,6 +1240,58 @@ interface Setup {
   readonly delay: readonly number[];
   readonly aifsMin: number;
   readonly buffers: Buffers;
+}
+
+/**
+ * The paired classes' part of the map's image: per state s and paired class c, the law of the stations
+ * of c that did not send in s's idle period, over the runs (y, s) weighted by the pair chain's law —
+ * listeners on y's law moved down by their environment (EDCA: a busy period at relative zone r ≥ 0 takes
+ * r + 1 from a counter above r; one before the listener's own zone, nothing), and the specials that did
+ * not send (their residuals). Written into `image`; a state never visited keeps the iterate's law.
+ */
+function pairedImage(layout: Layout, outcomes: readonly StateOutcome[], pi: Float64Array, x: Float64Array, image: Float64Array, S: number, work: Work): void {
+  const after = layout.after as readonly (readonly number[])[];
+  for (let s = 0; s < S; s++) for (let c = 0; c < layout.C; c++) if (after[s][c] >= 0) image.fill(0, after[s][c], after[s][c] + layout.size[c]);
+  for (let y = 0; y < S; y++) {
+    for (let s = 0; s < S; s++) {
+      const run = y * S + s;
+      const w = pi[run];
+      if (!(w > 0)) continue;
+      const o = outcomes[run];
+      for (let c = 0; c < layout.C; c++) {
+        const from = after[y][c];
+        if (from < 0) continue;
+        const K = layout.size[c];
+        const to = after[s][c];
+        const env = o.env[c];
+        work.done += K * env.length;
+        for (let k = 0; k < K; k++) image[to + k] += w * env[0] * x[from + k];
+        for (let r = 0; ENV_SHIFT + r < env.length; r++) {
+          const e = w * env[ENV_SHIFT + r];
+          if (!(e > 0)) continue;
+          for (let k = 0; k + r + 1 < K; k++) image[to + k] += e * x[from + k + r + 1];
+        }
+        if (o.members[c].special !== null) {
+          const d = o.residualDiff[c];
+          let acc = 0;
+          for (let k = 0; k < K; k++) {
+            acc += d[k];
+            image[to + k] += w * acc;
+          }
+        }
+      }
+    }
+  }
+  for (let s = 0; s < S; s++) {
+    for (let c = 0; c < layout.C; c++) {
+      const at = after[s][c];
+      if (at < 0) continue;
+      let total = 0;
+      for (let k = at; k < at + layout.size[c]; k++) total += image[k];
+      if (total > 0) for (let k = at; k < at + layout.size[c]; k++) image[k] /= total;
+      else image.set(x.subarray(at, at + layout.size[c]), at);
+    }
+  }
 }
 
 function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Array): Sweep {
@@ -1210,14 +1312,36 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
     countScratch: buffers.counts,
   };
   const outcomes: StateOutcome[] = [];
-  // Per sweep every state fills and sums counter-table arrays of each class.
-  for (const K of layout.size) work.done += (K + ENTRY_MARGIN) * (3 * space.count + 8);
-  for (let s = 0; s < space.count; s++) {
-    const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.states[s], buffers.zone);
-    o.cycleUs += stateLeadUs(channel, s, space);
-    outcomes.push(o);
+  const S = space.count;
+  const after = layout.after;
+  // Per sweep every state (pair) fills and sums counter-table arrays of each class.
+  for (const K of layout.size) work.done += (K + ENTRY_MARGIN) * (3 * buffers.states.length + 8);
+  let pi: Float64Array;
+  if (after === null) {
+    for (let s = 0; s < S; s++) {
+      const o = runState(channel, membersOf(channel, s, space, laws, delay), space, aifsMin, work, buffers.states[s], buffers.zone);
+      o.cycleUs += stateLeadUs(channel, s, space);
+      outcomes.push(o);
+    }
+    pi = stationary(outcomes.map((o) => o.next));
+  } else {
+    // Pair states (y, s), run y·S + s: a paired class's listeners in s take the law y's idle period left.
+    const leftBy = after.map((row, y) => row.map((at, i) => (at < 0 ? null : lawOf(x.subarray(at, at + layout.size[i]), 0, null, buffers.pairTails[y][i]))));
+    for (let s = 0; s < S; s++) {
+      const base = membersOf(channel, s, space, laws, delay);
+      const lead = stateLeadUs(channel, s, space);
+      for (let y = 0; y < S; y++) {
+        const members = base.map((m, i) => (leftBy[y][i] === null ? m : { ...m, listener: leftBy[y][i] as Law }));
+        const run = y * S + s;
+        const o = runState(channel, members, space, aifsMin, work, buffers.states[run], buffers.zone);
+        o.cycleUs += lead;
+        outcomes[run] = o;
+        const row = buffers.pairRows[run].fill(0);
+        for (let n = 0; n < S; n++) row[s * S + n] = o.next[n];
+      }
+    }
+    pi = stationary(buffers.pairRows);
   }
-  const pi = stationary(outcomes.map((o) => o.next));
   image.fill(0);
   for (let c = 0; c < C; c++) {
     let a = 0;
@@ -1265,7 +1389,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
       const e = o.env[i];
       for (let k = 0; k < env.length; k++) env[k] += w * e[k];
       weight += w * o.envWeight[i];
-      tailMass += w * buffers.states[s].beyond[i][0];
+      tailMass += w * buffers.states[s].beyond[i][0]; // s: the run (a state, or a pair of states)
       tailMoment += w * buffers.states[s].beyond[i][1];
     }
     if (weight <= 0) {
@@ -1276,6 +1400,7 @@ function sweepOnce(setup: Setup, x: Float64Array, work: Work, image: Float64Arra
     for (let k = 0; k < env.length; k++) env[k] /= weight;
     listenerLaw(entries, tailMass, tailMoment, env, c.countdown === "DCF", work, buffers.visits[i], image.subarray(layout.start[i], layout.start[i] + layout.size[i]));
   }
+  if (after !== null) pairedImage(layout, outcomes, pi, x, image, S, work);
   return { outcomes, pi, image };
 }
 
@@ -1312,6 +1437,18 @@ function project(x: Float64Array, layout: Layout, space: StateSpace, classes: re
     }
     if (total > 1) for (let k = layout.start[c]; k < end; k++) x[k] /= total;
   }
+  // Paired laws hold every counter: each is a law (sums to 1) when it has any mass.
+  layout.after?.forEach((row) =>
+    row.forEach((at, c) => {
+      if (at < 0) return;
+      let total = 0;
+      for (let k = at; k < at + layout.size[c]; k++) {
+        if (!(x[k] > 0)) x[k] = 0;
+        total += x[k];
+      }
+      if (total > 0) for (let k = at; k < at + layout.size[c]; k++) x[k] /= total;
+    }),
+  );
 }
 
 /**
@@ -1435,7 +1572,16 @@ function fixedPointKey(channel: ContentionChannel, space: StateSpace): string {
 }
 
 /** Solved iterates by fixedPointKey (as bianchi.ts keeps Bianchi's fixed points), at most FIXED_POINT_MEMO_LIMIT. */
-const FIXED_POINTS = new Map<string, { readonly tables: readonly number[]; readonly x: Float64Array; readonly fresh: readonly Law[] }>();
+const FIXED_POINTS = new Map<
+  string,
+  {
+    readonly tables: readonly number[];
+    readonly x: Float64Array;
+    readonly fresh: readonly Law[];
+    readonly layout: Layout;
+    readonly colliderPieces: readonly Pieces[];
+  }
+>();
 const FIXED_POINT_MEMO_LIMIT = 512;
 
 function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixResult {
@@ -1461,26 +1607,32 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
   const work: Work = { done: 0 };
-  let tables = classes.map((c) => Math.min(c.cwMax + 1, options.tableStart ?? TABLE_START));
-  const workLimit = options.workLimit ?? WORK_LIMIT;
-  const setupOf = (sizes: readonly number[]): Setup => ({
-    channel,
-    space,
-    layout: layoutOf(classes.length, space, sizes),
-    fresh: known !== undefined && sizes === tables ? known.fresh : classes.map((c, i) => freshLaw(c, sizes[i])),
-    colliderPieces: classes.map(colliderPieces),
-    delay,
-    aifsMin,
-    buffers: pooledBuffers(space, sizes),
-  });
-  if (known !== undefined) tables = [...known.tables];
+  let tables: readonly number[] = classes.map((c) => Math.min(c.cwMax + 1, options.tableStart ?? TABLE_START));
+  // Pair states (pairedClasses) run S times the states per sweep: the limit grows with them.
+  const workLimit = options.workLimit ?? (pairedClasses(classes, tables).some((b) => b) ? 2 * space.count * WORK_LIMIT : WORK_LIMIT);
+  const setupOf = (sizes: readonly number[]): Setup => {
+    // A kept fixed point brings the parts of the setup that depend on the dynamics alone.
+    const kept = known !== undefined && sizes === tables;
+    const layout = kept ? known.layout : layoutOf(classes.length, space, sizes, pairedClasses(classes, sizes));
+    return {
+      channel,
+      space,
+      layout,
+      fresh: kept ? known.fresh : classes.map((c, i) => freshLaw(c, sizes[i])),
+      colliderPieces: kept ? known.colliderPieces : classes.map(colliderPieces),
+      delay,
+      aifsMin,
+      buffers: pooledBuffers(space, sizes, layout),
+    };
+  };
+  if (known !== undefined) tables = known.tables;
   let setup = setupOf(tables);
-  // Start: p = 0, two colliders of a class alone and one of each class in a mixed collision, every
-  // listener on its first window.
-  let x: Float64Array = new Float64Array(setup.layout.length);
-  if (known !== undefined) x.set(known.x);
-  else {
+  // Start: a kept fixed point (read, never written: the iteration moves on in its own buffers), or p = 0,
+  // two colliders of a class alone and one of each class in a mixed collision, every listener on its first window.
+  let x: Float64Array = known !== undefined ? known.x : new Float64Array(setup.layout.length);
+  if (known === undefined) {
     classes.forEach((c, i) => x.set(uniform(tables[i], c.cwMin + 1), setup.layout.start[i]));
+    setup.layout.after?.forEach((row) => row.forEach((at, i) => at >= 0 && x.set(uniform(tables[i], classes[i].cwMin + 1), at)));
     project(x, setup.layout, space, classes);
   }
   const fs: Float64Array[] = [];
@@ -1509,6 +1661,15 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
         const added = grown[i] - tables[i];
         for (let k = tables[i]; k < grown[i]; k++) y[at + k] = added > 0 ? Math.max(0, 1 - held) / added : 0;
       });
+      // Paired classes hold all their counters already: their tables do not grow, their laws carry over.
+      next.layout.after?.forEach((row, st) =>
+        row.forEach((at, i) => {
+          const from = setup.layout.after?.[st][i] ?? -1;
+          if (at < 0) return;
+          if (from >= 0) y.set(last!.image.subarray(from, from + grown[i]), at);
+          else y.set(uniform(grown[i], classes[i].cwMin + 1), at);
+        }),
+      );
       tables = grown;
       setup = next;
       x = y;
@@ -1546,7 +1707,7 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
   const residual = moved <= MAP_TOLERANCE ? moved : Infinity;
   if (memoKey !== null && residual <= MAP_TOLERANCE && known === undefined) {
     if (FIXED_POINTS.size >= FIXED_POINT_MEMO_LIMIT) FIXED_POINTS.clear();
-    FIXED_POINTS.set(memoKey, { tables: [...tables], x: Float64Array.from(x), fresh: setup.fresh });
+    FIXED_POINTS.set(memoKey, { tables: [...tables], x: Float64Array.from(x), fresh: setup.fresh, layout: setup.layout, colliderPieces: setup.colliderPieces });
   }
   const { outcomes, pi, image } = last as Sweep;
   let cycleUs = 0;

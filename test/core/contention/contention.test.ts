@@ -219,16 +219,15 @@ describe("EDCAMIX", () => {
     expect(edcaMix(HE, "VO, BE", "10, 3", 1500)[0].goodputMbps).toBeGreaterThan(15);
     expect(edcaMix(HE, "VI, BE", "20, 1", 1500)[0].goodputMbps).toBeGreaterThan(15);
   });
-  // BE beside 5 VO: simulator 1.18 Mb/s at p 0.82, model 1.02 at p 0.83 (−14 %); beside 1 VO + 3 VI: 3.45 against 3.16.
-  it("answers #N/A naming counts for a deferred class above p 0.75 that still carries 0.5 Mb/s", () => {
-    expect(() => edcaMix(HE, "VO, BE", "5, 10", 1500)).toThrow(/^counts: the 10 BE stations wait a longer AIFS and collide on 83 %/);
-    expect(() => edcaMix(HE, "VO, VI, BE", "1, 3, 20", 1500)).toThrow(/^counts: the 20 BE stations wait a longer AIFS/);
+  // Beyond p 0.8 best effort beside 5 VO reads up to 7 % low (catalog.ts): refused once it carries 1.4 Mb/s.
+  it("answers #N/A naming counts for a deferred class above p 0.8 that still carries 1.4 Mb/s", () => {
+    expect(() => edcaMix(HE, "VO, BE", "5, 20", 1500)).toThrow(/^counts: the 20 BE stations wait a longer AIFS and collide on 84 %/);
   });
-  // The same shortfall under 0.5 Mb/s is under 0.1 Mb/s: 5 VO + 1 BE, simulator 0.15 Mb/s, model 0.13.
-  it("answers a deferred class above p 0.75 that carries less than 0.5 Mb/s", () => {
-    const be = edcaMix(HE, "VO, BE", "5, 1", 1500)[1].goodputMbps;
-    expect(be).toBeGreaterThan(0.05);
-    expect(be).toBeLessThan(0.5);
+  // Answered since the pair states (aifsZones.ts); reference (DEVELOPERS.md, 4 seeds × 200 000): BE beside 5 VO
+  // 1.18 Mb/s (one pooled listener law read 1.02), beside 1 VO + 3 VI 3.45 Mb/s (it read 3.16).
+  it("answers best effort beside 5 VO or 1 VO + 3 VI within the acceptance's tolerance of the reference", () => {
+    expect(Math.abs(edcaMix(HE, "VO, BE", "5, 10", 1500)[1].goodputMbps - 1.18)).toBeLessThanOrEqual(0.1);
+    expect(Math.abs(edcaMix(HE, "VO, VI, BE", "1, 3, 20", 1500)[2].goodputMbps / 3.45 - 1)).toBeLessThanOrEqual(0.05);
   });
   it("answers the mixes an earlier model refused: 2 VO beside 1 or 3 BE, BE beside BK", () => {
     expect(edcaMix(HE, "VO, BE", "2, 1", 1500)[1].goodputMbps).toBeGreaterThan(2);

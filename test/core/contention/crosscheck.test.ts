@@ -170,6 +170,13 @@ const MIXES: Mix[] = [
   [["VO", 1], ["VI", 1], ["BE", 1]],
   [["VO", 2], ["VI", 2], ["BE", 5]],
   [["VO", 5], ["VI", 5], ["BE", 10]],
+  // Best effort beside several small-window stations, which one pooled listener law per class read 5–14 % low
+  // (the pair states, aifsZones.ts pairedClasses).
+  [["VO", 2], ["BE", 1]],
+  [["VO", 5], ["BE", 10]],
+  [["VI", 5], ["BE", 3]],
+  [["VI", 10], ["BE", 20]],
+  [["VO", 1], ["VI", 3], ["BE", 20]],
   [["BE", 1], ["BK", 3]],
   [["BE", 2], ["BK", 10]],
 ];
@@ -224,21 +231,6 @@ describe("EDCAMIX's model against the simulator", () => {
       expectWithinMixTolerance(edcaSaturation(channel), simulatedMix(channel));
     });
   }
-
-  // Known shortfalls (DEVELOPERS.md): a deferred class beside several small-window stations reads low, by up
-  // to about 8 % where EDCAMIX still answers. Reference (4 seeds × 200 000 busy periods, our runs):
-  // 2 VO + 1 BE, BE 2.64 Mb/s; 5 VI + 3 BE, BE 2.14 Mb/s.
-  it("reads best effort beside 2 VO or 5 VI stations low, by less than 9 %", () => {
-    for (const [mix, sim] of [
-      [[["VO", 2], ["BE", 1]], 2.644],
-      [[["VI", 5], ["BE", 3]], 2.141],
-    ] as [Mix, number][]) {
-      const channel = contentionChannel("HE MCS7 1SS 20MHz GI0.8 5GHz", mix.map(([access, stations]) => ({ access, stations })), 1500);
-      const be = edcaSaturation(channel).classes[1].goodputMbps;
-      expect(be).toBeLessThan(sim);
-      expect(be).toBeGreaterThan(0.91 * sim);
-    }
-  });
 
   it("uses the single-class model for one class", () => {
     const one = contentionChannel("OFDM 54Mbps 5GHz", [{ access: "BE", stations: 10 }], 1500);
