@@ -201,7 +201,7 @@ function edcamixCold(): boolean {
   const bundleRate = rate((i) => (f(link, [["VO"], ["BE"]], [[vo(i)], [be(i)]], bytes(i) + 1) as number[][])[1][2]);
   // The same mixes solved from the start every call (a study option of the solver bypasses the kept fixed
   // points, aifsZones.ts fixedPointKey): what a mix whose station counts, backoff and zone offsets were never
-  // seen before costs. Since the pair states (aifsZones.ts pairedClasses) this is about 1 ms: not met.
+  // seen before costs. Since the pair states (aifsZones.ts pairedClasses) this is 750–850 µs: not met.
   const { contentionChannel, edcaSaturation } = core.contention;
   const fullRate = rate((i) => edcaSaturation(contentionChannel(link, [{ access: "VO", stations: vo(i) }, { access: "BE", stations: be(i) }], bytes(i)), { tableStart: 32 }).classes[1].goodputMbps);
   const us = (r: number) => 1e6 / r;

@@ -83,10 +83,12 @@
  * listeners sit higher: that collision's listeners waited EIFS, its
  * colliders drew from the wider window). With one listener law per class a
  * deferred class beside several small-window stations read 5–14 % low. So
- * in a mix the chain runs on pairs (y, s) of states, and the listeners of
- * an EDCA class of at most PAIRED_WINDOW counters (VO, VI) take, in (y, s),
- * the law that y's idle period left (part of the iterate, pairedImage);
- * other classes keep R_c. S² runs per sweep instead of S.
+ * in a mix of two classes the chain runs on pairs (y, s) of states, and the
+ * listeners of an EDCA class of at most PAIRED_WINDOW counters (VO, VI)
+ * take, in (y, s), the law that y's idle period left (part of the iterate,
+ * pairedImage); the other class keeps R_c. S² runs per sweep instead of S,
+ * started from the one-law solution (solveDistinct); three classes or more
+ * keep one law per class (49 or more runs a sweep).
  *
  * What remains, measured against the simulator (DEVELOPERS.md): a deferred
  * class beyond p 0.8 beside 5 VO reads up to 7 % low, and a class
@@ -118,6 +120,8 @@ export interface MixResult {
   readonly work: number;
   /** All stations alike (one class, or the same settings given twice): solved by saturation.ts. */
   readonly oneClass: boolean;
+  /** Solved on pair states (pairedClasses): two classes, one of them with small windows, no class beyond p 0.97. */
+  readonly pairs: boolean;
 }
 
 const SWEEP_LIMIT = 200;
@@ -1129,14 +1133,15 @@ function layoutOf(C: number, space: StateSpace, tables: readonly number[], paire
 
 /**
  * Classes whose listeners are followed per previous state (pair states): EDCA classes of at most
- * PAIRED_WINDOW counters, held whole on their tables, in a mix of two or more classes.
+ * PAIRED_WINDOW counters, held whole on their tables, in a mix of two classes (solveDistinct).
  *
  * Why: the listeners of a state are not independent given it; they share the state before. In the
  * simulator (5 VO + 1 BE) the VO listeners' counters average 1.37 after a success that followed a success,
  * 2.0–2.5 after one that followed a collision (its listeners waited EIFS, its colliders drew from the
  * wider window), and with one pooled law best effort beside several VO or VI read 5–14 % low. So the
  * state chain runs on pairs (y, s), and a paired class's listeners in (y, s) take the law the
- * non-senders of y's idle period left (its part of the iterate); the others keep R_c.
+ * non-senders of y's idle period left (its part of the iterate); the others keep R_c. Two classes
+ * only (solveDistinct).
  */
 const PAIRED_WINDOW = 32;
 
@@ -1584,36 +1589,74 @@ const FIXED_POINTS = new Map<
 >();
 const FIXED_POINT_MEMO_LIMIT = 512;
 
+/** A solution and its final iterate (the pair states start from the one-law solution's). */
+interface Solved {
+  readonly result: MixResult;
+  readonly x: Float64Array;
+  readonly tables: readonly number[];
+}
+
+/**
+ * Pair states only for two classes (S² runs per sweep: 25 for two classes, 49 or more for three, too many
+ * for a call), and only where no class collides on more than PAIR_P_MAX of its attempts in the one-law
+ * solution (the catalog refuses those mixes; their fixed points settle slowly).
+ */
+const PAIR_P_MAX = 0.97;
+/** Work allowed to the pair states after the one-law solution (two-class mixes measured need up to 6e5). */
+const PAIR_WORK_LIMIT = 1e6;
+
 function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixResult {
+  const classes = channel.classes;
+  if (classes.length === 2 && pairedClasses(classes, classes.map((c) => Math.min(c.cwMax + 1, options.tableStart ?? TABLE_START))).some((b) => b)) {
+    // A kept pair fixed point needs no one-law solution to start from.
+    if (options.tableStart === undefined && options.workLimit === undefined && FIXED_POINTS.has(`P${fixedPointKey(channel, stateSpace(classes))}`)) {
+      return solveOnce(channel, options, true, null).result;
+    }
+    const single = solveOnce(channel, options, false, null);
+    if (!(single.result.residual <= MAP_TOLERANCE) || single.result.classes.some((c) => c.p > PAIR_P_MAX)) return single.result;
+    const paired = solveOnce(channel, options, true, single);
+    // Pair states that do not settle within their own limit leave the one-law solution (and its range).
+    if (!(paired.result.residual <= MAP_TOLERANCE)) return { ...single.result, sweeps: single.result.sweeps + paired.result.sweeps, work: single.result.work + paired.result.work };
+    return { ...paired.result, sweeps: single.result.sweeps + paired.result.sweeps, work: single.result.work + paired.result.work };
+  }
+  return solveOnce(channel, options, false, null).result;
+}
+
+function solveOnce(channel: ContentionChannel, options: SolverOptions, pairs: boolean, from: Solved | null): Solved {
   const classes = channel.classes;
   if (classes.length === 1 && !countersMatter(classes[0])) {
     const s = saturation(channel);
     const c = classes[0];
     return {
-      classes: [{ name: c.name, stations: c.stations, p: s.p, goodputMbps: s.goodputMbps, airtimeShare: 1 - s.contentionShare }],
-      contentionShare: s.contentionShare,
-      residual: 0,
-      sweeps: 0,
-      work: 0,
-      oneClass: true,
+      result: {
+        classes: [{ name: c.name, stations: c.stations, p: s.p, goodputMbps: s.goodputMbps, airtimeShare: 1 - s.contentionShare }],
+        contentionShare: s.contentionShare,
+        residual: 0,
+        sweeps: 0,
+        work: 0,
+        oneClass: true,
+        pairs: false,
+      },
+      x: new Float64Array(0),
+      tables: [],
     };
   }
   const space = stateSpace(classes); // holds the PPDU durations: made anew for every channel
   // A fixed point solved before for the same dynamics (fixedPointKey) starts the iteration, which then ends
   // after the sweep that evaluates it. (Study options solve afresh, and are not kept.)
-  const memoKey = options.tableStart === undefined && options.workLimit === undefined ? fixedPointKey(channel, space) : null;
+  const memoKey = options.tableStart === undefined && options.workLimit === undefined ? `${pairs ? "P" : "1"}${fixedPointKey(channel, space)}` : null;
   const known = memoKey === null ? undefined : FIXED_POINTS.get(memoKey);
   const minAifsn = Math.min(...classes.map((c) => c.aifsn));
   const aifsMin = channel.sifsUs + minAifsn * channel.slotUs;
   const delay = classes.map((c) => c.aifsn - minAifsn);
   const work: Work = { done: 0 };
-  let tables: readonly number[] = classes.map((c) => Math.min(c.cwMax + 1, options.tableStart ?? TABLE_START));
-  // Pair states (pairedClasses) run S times the states per sweep: the limit grows with them.
-  const workLimit = options.workLimit ?? (pairedClasses(classes, tables).some((b) => b) ? 2 * space.count * WORK_LIMIT : WORK_LIMIT);
+  let tables: readonly number[] = from !== null ? from.tables : classes.map((c) => Math.min(c.cwMax + 1, options.tableStart ?? TABLE_START));
+  const workLimit = options.workLimit ?? (pairs ? PAIR_WORK_LIMIT : WORK_LIMIT);
+  const pairing = (sizes: readonly number[]): boolean[] => (pairs ? pairedClasses(classes, sizes) : classes.map(() => false));
   const setupOf = (sizes: readonly number[]): Setup => {
     // A kept fixed point brings the parts of the setup that depend on the dynamics alone.
     const kept = known !== undefined && sizes === tables;
-    const layout = kept ? known.layout : layoutOf(classes.length, space, sizes, pairedClasses(classes, sizes));
+    const layout = kept ? known.layout : layoutOf(classes.length, space, sizes, pairing(sizes));
     return {
       channel,
       space,
@@ -1630,7 +1673,13 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
   // Start: a kept fixed point (read, never written: the iteration moves on in its own buffers), or p = 0,
   // two colliders of a class alone and one of each class in a mixed collision, every listener on its first window.
   let x: Float64Array = known !== undefined ? known.x : new Float64Array(setup.layout.length);
-  if (known === undefined) {
+  if (known === undefined && from !== null) {
+    // From the one-law solution: its p, colliders, BlockAckReq shares and listener laws, and every state's
+    // law left to the next one taken as the listener law.
+    x.set(from.x.subarray(0, Math.min(from.x.length, setup.layout.length)));
+    setup.layout.after?.forEach((row) => row.forEach((at, i) => at >= 0 && x.set(from.x.subarray(setup.layout.start[i], setup.layout.start[i] + tables[i]), at)));
+    project(x, setup.layout, space, classes);
+  } else if (known === undefined) {
     classes.forEach((c, i) => x.set(uniform(tables[i], c.cwMin + 1), setup.layout.start[i]));
     setup.layout.after?.forEach((row) => row.forEach((at, i) => at >= 0 && x.set(uniform(tables[i], classes[i].cwMin + 1), at)));
     project(x, setup.layout, space, classes);
@@ -1723,5 +1772,9 @@ function solveDistinct(channel: ContentionChannel, options: SolverOptions): MixR
       airtimeShare: (successes * (c.successUs + aifsMin)) / cycleUs,
     };
   });
-  return { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done, oneClass: classes.length === 1 };
+  return {
+    result: { classes: results, contentionShare: 1 - results.reduce((a, r) => a + r.airtimeShare, 0), residual, sweeps, work: work.done, oneClass: classes.length === 1, pairs: setup.layout.after !== null },
+    x,
+    tables,
+  };
 }
