@@ -97,6 +97,7 @@
  */
 import type { BlockAckRequestExchange, ContentionChannel, ContentionClass } from "./parameters";
 import { saturation } from "./saturation";
+import { binomialWeights } from "./binomial";
 
 export interface ClassResult {
   readonly name: string;
@@ -786,35 +787,8 @@ function colliderCounts(n: number, kMin: number, mean: number, into: Float64Arra
   const h = N > 0 ? Math.min(1, Math.max(0, (mean - kMin) / N)) : 0;
   if (h <= 1e-12) return { kMin, weights: ONE };
   if (h >= 1 - 1e-12) return { kMin: n, weights: ONE };
-  // From the mode both ways by the pmf's ratio, cut where a term falls below 1e-13 of the mode.
-  const mode = Math.min(N, Math.floor((N + 1) * h));
-  const ratio = h / (1 - h);
-  let lo = mode;
-  for (let j = mode, v = 1; j > 0; j--) {
-    v *= j / (N - j + 1) / ratio;
-    if (v <= 1e-13) break;
-    lo = j - 1;
-  }
-  let hi = mode;
-  for (let j = mode, v = 1; j < N; j++) {
-    v *= ((N - j) / (j + 1)) * ratio;
-    if (v <= 1e-13) break;
-    hi = j + 1;
-  }
-  const w = hi - lo + 1 <= into.length ? into.subarray(0, hi - lo + 1) : new Float64Array(hi - lo + 1);
-  w[mode - lo] = 1;
-  for (let j = mode, v = 1; j > lo; j--) {
-    v *= j / (N - j + 1) / ratio;
-    w[j - 1 - lo] = v;
-  }
-  for (let j = mode, v = 1; j < hi; j++) {
-    v *= ((N - j) / (j + 1)) * ratio;
-    w[j + 1 - lo] = v;
-  }
-  let total = 0;
-  for (let i = 0; i < w.length; i++) total += w[i];
-  for (let i = 0; i < w.length; i++) w[i] /= total;
-  return { kMin: kMin + lo, weights: w };
+  const { lo, weights } = binomialWeights(N, h, 0, into);
+  return { kMin: kMin + lo, weights };
 }
 
 /** countSums' powers of b (grown on demand for very wide count laws). */
@@ -851,7 +825,6 @@ const ZONE_OFFSETS: number[] = [];
 function membersOf(channel: ContentionChannel, state: number, space: StateSpace, laws: Laws, delay: readonly number[]): Member[] {
   const classes = channel.classes;
   const C = classes.length;
-  const sigma = channel.slotUs;
   if (state < C) {
     return classes.map((c, i) => ({
       n: c.stations,

@@ -60,6 +60,7 @@
  * them 3–12 % high.
  */
 import { bracketedRoot, fixedPoint } from "./bianchi";
+import { binomialWeights } from "./binomial";
 import { aifsUs, type ContentionChannel, type ContentionClass } from "./parameters";
 
 export interface Saturation {
@@ -139,35 +140,9 @@ function afterSuccess(cls: ContentionClass, slotUs: number): Special {
 function colliderCountLaw(n: number, tau: number, scratch: Float64Array): { readonly kMin: number; readonly weights: Float64Array } {
   if (n <= 2 || tau <= 0) return { kMin: 2, weights: ONE };
   if (tau >= 1) return { kMin: n, weights: ONE };
-  // P(K = k) ∝ C(n, k)·τ^k·(1 − τ)^(n − k); its mode, then both ways by the ratio of successive terms.
-  const ratio = tau / (1 - tau);
-  const mode = Math.max(2, Math.min(n, Math.floor((n + 1) * tau)));
-  let lo = mode;
-  for (let k = mode, v = 1; k > 2; k--) {
-    v *= k / ((n - k + 1) * ratio); // P(k − 1) ÷ P(k) × v
-    if (v <= 1e-13) break;
-    lo = k - 1;
-  }
-  let hi = mode;
-  for (let k = mode, v = 1; k < n; k++) {
-    v *= ((n - k) / (k + 1)) * ratio;
-    if (v <= 1e-13) break;
-    hi = k + 1;
-  }
-  const w = hi - lo + 1 <= scratch.length ? scratch.subarray(0, hi - lo + 1) : new Float64Array(hi - lo + 1);
-  w[mode - lo] = 1;
-  for (let k = mode, v = 1; k > lo; k--) {
-    v *= k / ((n - k + 1) * ratio);
-    w[k - 1 - lo] = v;
-  }
-  for (let k = mode, v = 1; k < hi; k++) {
-    v *= ((n - k) / (k + 1)) * ratio;
-    w[k + 1 - lo] = v;
-  }
-  let total = 0;
-  for (let i = 0; i < w.length; i++) total += w[i];
-  for (let i = 0; i < w.length; i++) w[i] /= total;
-  return { kMin: lo, weights: w };
+  // P(K = k) ∝ C(n, k)·τ^k·(1 − τ)^(n − k) for k ≥ 2.
+  const { lo, weights } = binomialWeights(n, tau, 2, scratch);
+  return { kMin: lo, weights };
 }
 
 const ONE = Float64Array.of(1);
